@@ -1,0 +1,273 @@
+import { DEFAULT_SET, type ConstantSet } from "../constants/sets.js";
+import { relativeUncertainty } from "../constants/constant.js";
+import type { MethodDefinition, MethodResult } from "../methods/method.js";
+import { latexNumber } from "../quantity/format.js";
+import type { Quantity } from "../quantity/quantity.js";
+import type { MeasurementRecord, SlotInput } from "../records/types.js";
+import { findUnit } from "../units/catalog.js";
+import { describeDimension, sameDimension, MASS, type Dimension } from "../units/dimension.js";
+import { propagateFirstOrder, varianceShares, type SideUncertainty } from "../uncertainty/first-order.js";
+import { runMonteCarlo, summarizeSorted, type DrawInput } from "../uncertainty/monte-carlo.js";
+import { hashSeed } from "../uncertainty/random.js";
+import { compare, worstStatus } from "./compare.js";
+import type {
+  BudgetEntry,
+  ComparisonAudit,
+  EquationAudit,
+  InputAudit,
+  MeasurementAudit,
+  ResultAudit,
+  Thresholds,
+} from "./types.js";
+
+export interface AuditOptions {
+  readonly draws: number;
+  readonly thresholds: Thresholds;
+  readonly constants?: ConstantSet;
+}
+
+const SI_UNITS: ReadonlyArray<readonly [Dimension, string, string]> = [
+  [MASS, "kg", "\\mathrm{kg}"],
+];
+
+/** SI unit text and LaTeX for a dimension, as reports print them. Mass slots inside `compute` are GM. */
+export function siUnitOf(d: Dimension): { text: string; latex: string } {
+  for (const [dim, text, latex] of SI_UNITS) if (sameDimension(dim, d)) return { text, latex };
+  const parts: Array<[string, number]> = [
+    ["m", d.length],
+    ["kg", d.mass],
+    ["s", d.time],
+    ["rad", d.angle],
+  ];
+  const present = parts.filter(([, n]) => n !== 0);
+  if (present.length === 0) return { text: "", latex: "" };
+  const text = present.map(([u, n]) => (n === 1 ? u : `${u}${n}`)).join(" ");
+  const latex = "\\mathrm{" + present.map(([u, n]) => (n === 1 ? u : `${u}^{${n}}`)).join("\\,") + "}";
+  return { text, latex };
+}
+
+const GM_UNIT = { text: "m3 s-2", latex: "\\mathrm{m^{3}\\,s^{-2}}" };
+
+function isMass(d: Dimension): boolean {
+  return sameDimension(d, MASS);
+}
+
+/** SI value handed to `compute`: GM for masses (exact for nominal solar and planetary units), else value × scale. */
+function slotValue(input: SlotInput): { value: number; plus: number; minus: number } {
+  const q = input.quantity;
+  if (isMass(q.unit.dimension)) {
+    const gm = q.unit.gm;
+    if (gm === undefined) throw new Error(`mass unit ${q.unit.id} has no GM`);
+    const rel = q.unit.gmRelativeUncertainty ?? 0;
+    const value = q.value * gm;
+    // a kilogram mass turned into GM inherits G's relative uncertainty
+    const widen = (s: number) => Math.hypot(s * gm, rel * value);
+    return { value, plus: q.kind === "exact" && rel === 0 ? 0 : widen(q.plus), minus: q.kind === "exact" && rel === 0 ? 0 : widen(q.minus) };
+  }
+  const s = q.unit.scale;
+  return { value: q.value * s, plus: q.plus * s, minus: q.minus * s };
+}
+
+function inputAudit(input: SlotInput): InputAudit {
+  const q = input.quantity;
+  const s = q.unit.scale;
+  return {
+    field: input.field,
+    slot: input.slot,
+    text: q.text,
+    kind: q.kind,
+    value: q.value,
+    plus: q.plus,
+    minus: q.minus,
+    unit: q.unit.id,
+    unit_latex: q.unit.latex,
+    value_si: q.value * s,
+    plus_si: q.plus * s,
+    minus_si: q.minus * s,
+    unit_si: siUnitOf(q.unit.dimension).text,
+  };
+}
+
+/** Display unit of a result: the published one when given, else the method's default. */
+function displayUnitFor(result: MethodResult, published: Quantity | undefined) {
+  if (published && sameDimension(published.unit.dimension, result.dimension) && findUnit(published.unit.id)) {
+    return published.unit;
+  }
+  const u = findUnit(result.displayUnit);
+  if (!u) throw new Error(`method result ${result.name}: display unit ${result.displayUnit} is not in the catalogue`);
+  return u;
+}
+
+/** Convert a compute-space value (GM for masses) to reporting SI (kg for masses). */
+function reportSI(result: MethodResult, value: number, K: ConstantSet): number {
+  return isMass(result.dimension) ? value / K.G.value : value;
+}
+
+export function measurementSeed(objectId: string, key: string): number {
+  return hashSeed(`${objectId}/${key}`);
+}
+
+export function auditMeasurement(objectId: string, method: MethodDefinition, m: MeasurementRecord, options: AuditOptions): MeasurementAudit {
+  const K = options.constants ?? DEFAULT_SET;
+  const gRel = relativeUncertainty(K.G);
+  const slots = Object.keys(m.inputs).sort();
+  const si: Record<string, number> = {};
+  const sides: Record<string, SideUncertainty> = {};
+  const draws: DrawInput[] = [];
+  for (const slot of slots) {
+    const v = slotValue(m.inputs[slot]);
+    si[slot] = v.value;
+    sides[slot] = { plus: v.plus, minus: v.minus };
+    draws.push({ slot, ...v });
+  }
+
+  const computed = method.compute(si);
+  const partials = method.partials(si);
+  const seed = measurementSeed(objectId, m.key);
+  const mc = options.draws > 0 ? runMonteCarlo(method, draws, options.draws, seed) : undefined;
+
+  const labels: Record<string, string> = {};
+  for (const i of method.inputs) labels[i.slot] = i.field.replace(/_/g, " ");
+  labels.G = "G (CODATA 2018)";
+
+  const results: Record<string, ResultAudit> = {};
+  const comparisons: Record<string, ComparisonAudit> = {};
+  for (const def of method.results) {
+    if (!(def.name in computed)) continue;
+    const raw = computed[def.name];
+    const fo = propagateFirstOrder(partials[def.name] ?? {}, sides);
+    const variances: Record<string, number> = { ...fo.variances };
+    let value_si = reportSI(def, raw, K);
+    let plus = reportSI(def, fo.plus, K);
+    let minus = reportSI(def, fo.minus, K);
+    if (isMass(def.dimension)) {
+      // M = GM / G: G's relative uncertainty adds in quadrature, for kilograms only
+      plus = Math.hypot(plus, value_si * gRel);
+      minus = Math.hypot(minus, value_si * gRel);
+      const gmToKg = 1 / K.G.value;
+      for (const k of Object.keys(variances)) variances[k] *= gmToKg * gmToKg;
+      variances.G = (value_si * gRel) ** 2;
+    }
+    const sigma = (plus + minus) / 2;
+    const budget: BudgetEntry[] = varianceShares(variances).map(({ source, share }) => ({
+      source,
+      label: labels[source] ?? source,
+      share,
+    }));
+    const pub = m.published[def.name]?.quantity;
+    const unit = displayUnitFor(def, pub);
+    const unitSI = siUnitOf(def.dimension);
+    const entry: ResultAudit = {
+      name: def.name,
+      value_si,
+      sigma_si: sigma,
+      sigma_plus_si: plus,
+      sigma_minus_si: minus,
+      unit_si: unitSI.text,
+      display_unit: unit.id,
+      display_unit_latex: unit.latex,
+      value: value_si / unit.scale,
+      sigma: sigma / unit.scale,
+      budget,
+    };
+    if (mc && mc.draws > 0 && mc.samples[def.name]) {
+      const s = summarizeSorted(mc.samples[def.name]);
+      const f = isMass(def.dimension) ? 1 / K.G.value : 1;
+      (entry as { mc?: ResultAudit["mc"] }).mc = {
+        draws: mc.draws,
+        rejected: mc.rejected,
+        median_si: s.median * f,
+        p16_si: s.p16 * f,
+        p84_si: s.p84 * f,
+        mean_si: s.mean * f,
+        sd_si: s.sd * f,
+      };
+    }
+    results[def.name] = entry;
+
+    if (pub) {
+      if (!sameDimension(pub.unit.dimension, def.dimension)) {
+        throw new Error(`published ${def.name} has dimension ${describeDimension(pub.unit.dimension)}: the loader should have refused it`);
+      }
+      const s = pub.unit.scale;
+      const c = compare(
+        { value: value_si, plus, minus },
+        { kind: pub.kind, value: pub.value * s, plus: pub.plus * s, minus: pub.minus * s },
+        options.thresholds,
+      );
+      comparisons[def.name] = {
+        result: def.name,
+        published_text: pub.text,
+        published_kind: pub.kind,
+        published_value: pub.value,
+        published_plus: pub.plus,
+        published_minus: pub.minus,
+        published_unit: pub.unit.id,
+        published_si: pub.value * s,
+        published_plus_si: pub.plus * s,
+        published_minus_si: pub.minus * s,
+        difference_si: c.difference,
+        ratio: c.ratio,
+        sigma_used_si: c.sigmaUsed,
+        sigma_from: c.sigmaFrom,
+        z: c.z,
+        status: c.status,
+      };
+    }
+  }
+
+  const equations = buildEquations(method, si, computed, K);
+  const assumptions = [...method.assumptions, ...method.implicitAssumptions(si)];
+  const status = worstStatus(Object.values(comparisons).map((c) => c.status));
+  const out: MeasurementAudit = {
+    key: m.key,
+    method: method.id,
+    status,
+    use: m.use,
+    ...(m.comment !== undefined ? { comment: m.comment } : {}),
+    reference: m.reference,
+    inputs: Object.fromEntries(slots.map((slot) => [m.inputs[slot].field, inputAudit(m.inputs[slot])])),
+    assumptions,
+    results,
+    comparisons,
+    equations,
+    seed,
+  };
+  return out;
+}
+
+function buildEquations(
+  method: MethodDefinition,
+  si: Record<string, number>,
+  computed: Record<string, number>,
+  K: ConstantSet,
+): EquationAudit[] {
+  const dims: Record<string, Dimension> = {};
+  for (const i of method.inputs) dims[i.slot] = i.dimension;
+  for (const r of method.results) dims[r.name] = r.dimension;
+  const fmt = (valueSI: number, name: string): string => {
+    const d = dims[name];
+    const unit = d && isMass(d) ? GM_UNIT : d ? siUnitOf(d) : { latex: "" };
+    const number = latexNumber(valueSI);
+    return unit.latex ? `${number}\\,${unit.latex}` : number;
+  };
+  const substituted = method.substituted(si, computed, fmt);
+  const out: EquationAudit[] = method.equations.map((eq, i) => ({
+    results: eq.results,
+    general: eq.latex,
+    substituted: substituted[i]?.latex ?? "",
+  }));
+  // the step from GM to solar masses needs no G; kilograms do
+  for (const r of method.results) {
+    if (!isMass(r.dimension) || !(r.name in computed)) continue;
+    const gm = computed[r.name];
+    out.push({
+      results: [r.name],
+      general: `${r.symbol} = \\frac{\\mathcal{G}${r.symbol}}{(\\mathcal{GM})^{\\mathrm{N}}_{\\odot}}\\,M_{\\odot} = \\frac{\\mathcal{G}${r.symbol}}{G}`,
+      substituted:
+        `${r.symbol} = \\frac{${latexNumber(gm)}\\,${GM_UNIT.latex}}{${latexNumber(K.GM_sun.value, 8)}\\,${GM_UNIT.latex}}\\,M_{\\odot} = ` +
+        `${latexNumber(gm / K.GM_sun.value)}\\,M_{\\odot} = ${latexNumber(gm / K.G.value)}\\,\\mathrm{kg}`,
+    });
+  }
+  return out;
+}

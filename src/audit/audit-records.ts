@@ -1,0 +1,100 @@
+import { DEFAULT_SET } from "../constants/sets.js";
+import { getMethod } from "../methods/index.js";
+import type { Problem } from "../problem.js";
+import type { LoadOutcome } from "../records/types.js";
+import { auditMeasurement, type AuditOptions } from "./audit-measurement.js";
+import { DEFAULT_THRESHOLDS, worstStatus } from "./compare.js";
+import { STATUSES, type AuditReport, type MeasurementAudit, type ObjectAudit, type Status } from "./types.js";
+import { VERSION } from "../version.js";
+
+export const DEFAULT_DRAWS = 20_000;
+
+export interface RunOptions {
+  readonly draws?: number;
+  readonly thresholds?: Partial<AuditOptions["thresholds"]>;
+}
+
+function resolveOptions(options: RunOptions = {}): AuditOptions {
+  return {
+    draws: options.draws ?? DEFAULT_DRAWS,
+    thresholds: { ...DEFAULT_THRESHOLDS, ...(options.thresholds ?? {}) },
+    constants: DEFAULT_SET,
+  };
+}
+
+function allFinite(m: MeasurementAudit): boolean {
+  return Object.values(m.results).every((r) => Number.isFinite(r.value_si) && Number.isFinite(r.sigma_si));
+}
+
+/** Audits every valid measurement of the loaded records; record problems pass through untouched. */
+export function auditRecords(outcome: LoadOutcome, options: RunOptions = {}): AuditReport {
+  const resolved = resolveOptions(options);
+  const problems: Problem[] = [...outcome.problems];
+  const objects: ObjectAudit[] = [];
+  const counts = Object.fromEntries(STATUSES.map((s) => [s, 0])) as Record<Status, number>;
+  let measurementCount = 0;
+  for (const record of outcome.records) {
+    const measurements: MeasurementAudit[] = [];
+    record.measurements.forEach((m) => {
+      const method = getMethod(m.method);
+      if (!method) throw new Error(`record ${record.id}: method ${m.method} passed the loader but is not registered`);
+      const audit = auditMeasurement(record.id, method, m, resolved);
+      if (!allFinite(audit)) {
+        problems.push({
+          code: "not-computable",
+          severity: "error",
+          file: record.file,
+          line: m.location.line,
+          column: m.location.column,
+          path: `measurements[${m.key}]`,
+          message: `measurement ${m.key} gives a result that is not a finite number`,
+          hint: "check the inputs' units and magnitudes; a value may overflow or vanish",
+        });
+        return;
+      }
+      measurements.push(audit);
+    });
+    if (measurements.length === 0) continue;
+    for (const m of measurements) counts[m.status]++;
+    measurementCount += measurements.length;
+    objects.push({
+      id: record.id,
+      name: record.name,
+      file: record.file,
+      aliases: record.aliases,
+      ...(record.notes !== undefined ? { notes: record.notes } : {}),
+      status: worstStatus(measurements.map((m) => m.status)),
+      measurements,
+    });
+  }
+  problems.sort(
+    (a, b) =>
+      (a.file < b.file ? -1 : a.file > b.file ? 1 : 0) ||
+      a.line - b.line ||
+      a.column - b.column ||
+      (a.code < b.code ? -1 : a.code > b.code ? 1 : 0),
+  );
+  const withErrors = new Set(outcome.filesWithErrors);
+  for (const p of problems) if (p.severity === "error") withErrors.add(p.file);
+  return {
+    tool: { name: "steelyard", version: VERSION },
+    settings: { thresholds: resolved.thresholds, draws: resolved.draws, constants: DEFAULT_SET.id },
+    summary: {
+      files: outcome.files.length,
+      files_audited: new Set(objects.map((o) => o.file)).size,
+      files_with_problems: withErrors.size,
+      objects: objects.length,
+      measurements: measurementCount,
+      status_counts: counts,
+    },
+    objects,
+    problems,
+  };
+}
+
+/** Exit code of `check` and `build`: 2 when any record has an error, else 1 when anything is discrepant, else 0. */
+export function exitCodeFor(report: AuditReport): number {
+  if (report.problems.some((p) => p.severity === "error")) return 2;
+  if (report.summary.status_counts.discrepant > 0) return 1;
+  return 0;
+}

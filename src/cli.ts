@@ -1,0 +1,140 @@
+import path from "node:path";
+import { exitCodeFor } from "./audit/audit-records.js";
+import { runAudit } from "./audit/run.js";
+import { textReport } from "./report/text-report.js";
+import { VERSION } from "./version.js";
+
+const USAGE = `steelyard ${VERSION}: recompute published dynamical masses and audit them
+
+Usage:
+  steelyard check [RECORDS_DIR] [--json] [--draws N] [--tension Z] [--discrepant Z]
+  steelyard build [RECORDS_DIR] [--out DIR] [--base-path /prefix/] [--draws N]
+  steelyard help | --help
+  steelyard --version
+
+RECORDS_DIR defaults to content/records. Exit codes: 0 when nothing is discrepant and no
+record has problems; 1 when a result is discrepant; 2 when any record has problems (the
+valid records are still audited and reported).
+`;
+
+interface Parsed {
+  readonly command: string;
+  readonly positional: string[];
+  readonly flags: Map<string, string | true>;
+}
+
+const VALUE_FLAGS = new Set(["--out", "--base-path", "--draws", "--tension", "--discrepant", "--compare-to"]);
+const BOOLEAN_FLAGS = new Set(["--json", "--help", "--version", "--quiet"]);
+
+function parseArgs(argv: readonly string[]): Parsed | string {
+  const positional: string[] = [];
+  const flags = new Map<string, string | true>();
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i];
+    if (arg.startsWith("--")) {
+      const eq = arg.indexOf("=");
+      const name = eq > 0 ? arg.slice(0, eq) : arg;
+      if (VALUE_FLAGS.has(name)) {
+        const value = eq > 0 ? arg.slice(eq + 1) : argv[++i];
+        if (value === undefined) return `${name} needs a value`;
+        flags.set(name, value);
+      } else if (BOOLEAN_FLAGS.has(name) && eq < 0) {
+        flags.set(name, true);
+      } else {
+        return `unknown option ${arg}; run "steelyard --help" for the options`;
+      }
+    } else positional.push(arg);
+  }
+  const command = positional.shift() ?? (flags.has("--version") ? "version" : "help");
+  return { command, positional, flags };
+}
+
+function numberFlag(flags: Parsed["flags"], name: string): number | undefined | string {
+  const v = flags.get(name);
+  if (v === undefined) return undefined;
+  const n = Number(v);
+  if (typeof v !== "string" || v.trim() === "" || !Number.isFinite(n) || n < 0) return `${name} needs a non-negative number, got "${String(v)}"`;
+  return n;
+}
+
+export interface Io {
+  readonly out: (text: string) => void;
+  readonly err: (text: string) => void;
+}
+
+const STD_IO: Io = {
+  out: (t) => process.stdout.write(t),
+  err: (t) => process.stderr.write(t),
+};
+
+export async function main(argv: readonly string[], io: Io = STD_IO): Promise<number> {
+  const parsed = parseArgs(argv);
+  if (typeof parsed === "string") {
+    io.err(`steelyard: ${parsed}\n`);
+    return 2;
+  }
+  const { command, positional, flags } = parsed;
+  if (flags.has("--help") || command === "help") {
+    io.out(USAGE);
+    return 0;
+  }
+  if (command === "version" || flags.has("--version")) {
+    io.out(`${VERSION}\n`);
+    return 0;
+  }
+  if (command !== "check" && command !== "build") {
+    io.err(`steelyard: unknown command "${command}"; the commands are check and build\n`);
+    return 2;
+  }
+  if (positional.length > 1) {
+    io.err(`steelyard: ${command} takes one records folder, got ${positional.length}\n`);
+    return 2;
+  }
+  const draws = numberFlag(flags, "--draws");
+  const tension = numberFlag(flags, "--tension");
+  const discrepant = numberFlag(flags, "--discrepant");
+  for (const v of [draws, tension, discrepant]) {
+    if (typeof v === "string") {
+      io.err(`steelyard: ${v}\n`);
+      return 2;
+    }
+  }
+  if (typeof draws === "number" && !Number.isInteger(draws)) {
+    io.err(`steelyard: --draws needs a whole number\n`);
+    return 2;
+  }
+  const thresholds: { tension?: number; discrepant?: number } = {};
+  if (typeof tension === "number") thresholds.tension = tension;
+  if (typeof discrepant === "number") thresholds.discrepant = discrepant;
+  if ((thresholds.tension ?? 1) > (thresholds.discrepant ?? 3)) {
+    io.err(`steelyard: --tension must not exceed --discrepant\n`);
+    return 2;
+  }
+  const recordsDir = path.resolve(positional[0] ?? "content/records");
+  const options = { ...(typeof draws === "number" ? { draws } : {}), thresholds };
+
+  if (command === "check") {
+    const report = await runAudit(recordsDir, options);
+    io.out(flags.has("--json") ? JSON.stringify(report, null, 2) + "\n" : textReport(report));
+    return exitCodeFor(report);
+  }
+
+  const outDir = path.resolve(String(flags.get("--out") ?? "_site"));
+  const basePath = String(flags.get("--base-path") ?? "/");
+  const compareTo = flags.get("--compare-to");
+  const { buildSite } = await import("./site/build.js");
+  const { report, pages } = await buildSite({
+    recordsDir,
+    outDir,
+    basePath,
+    quiet: flags.has("--quiet"),
+    audit: options,
+    ...(typeof compareTo === "string" ? { compareTo: path.resolve(compareTo) } : {}),
+  });
+  const s = report.summary;
+  io.out(
+    `Wrote ${pages} pages to ${outDir}: ${s.objects} objects, ${s.measurements} measurements, ` +
+      `${report.problems.length} problems in ${s.files_with_problems} files.\n`,
+  );
+  return exitCodeFor(report);
+}
