@@ -5,7 +5,8 @@ import { latexNumber } from "../quantity/format.js";
 import type { Quantity } from "../quantity/quantity.js";
 import type { MeasurementRecord, SlotInput } from "../records/types.js";
 import { findUnit } from "../units/catalog.js";
-import { describeDimension, sameDimension, MASS, type Dimension } from "../units/dimension.js";
+import { describeDimension, sameDimension, GRAVITATIONAL_PARAMETER, MASS, type Dimension } from "../units/dimension.js";
+import type { Unit } from "../units/unit.js";
 import { propagateFirstOrder, varianceShares, type SideUncertainty } from "../uncertainty/first-order.js";
 import { runMonteCarlo, summarizeSorted, type DrawInput } from "../uncertainty/monte-carlo.js";
 import { hashSeed } from "../uncertainty/random.js";
@@ -55,6 +56,10 @@ function isMass(d: Dimension): boolean {
 /** SI value handed to `compute`: GM for masses (exact for nominal solar and planetary units), else value × scale. */
 function slotValue(input: SlotInput): { value: number; plus: number; minus: number } {
   const q = input.quantity;
+  if (isGM(q.unit.dimension)) {
+    const s = q.unit.scale;
+    return { value: q.value * s, plus: q.plus * s, minus: q.minus * s };
+  }
   if (isMass(q.unit.dimension)) {
     const gm = q.unit.gm;
     if (gm === undefined) throw new Error(`mass unit ${q.unit.id} has no GM`);
@@ -88,9 +93,43 @@ function inputAudit(input: SlotInput): InputAudit {
   };
 }
 
+function isGM(d: Dimension): boolean {
+  return sameDimension(d, GRAVITATIONAL_PARAMETER);
+}
+
+/** A published value may be given in the result's dimension or, for a mass, as GM (km³ s⁻²). */
+export function acceptsPublishedDimension(result: Dimension, published: Dimension): boolean {
+  return sameDimension(result, published) || (isMass(result) && isGM(published));
+}
+
+/** Factor from a published value in its unit to reporting SI (kg for masses). */
+function publishedScale(result: MethodResult, pub: Quantity, K: ConstantSet): number {
+  return isMass(result.dimension) && isGM(pub.unit.dimension) ? pub.unit.scale / K.G.value : pub.unit.scale;
+}
+
+/**
+ * Value and σ in the display unit. Nominal solar and planetary units and GM
+ * units are read straight from GM, so they carry no G uncertainty; kg and g
+ * are read from the kilogram value, which does.
+ */
+function inDisplayUnit(
+  result: MethodResult,
+  unit: Unit,
+  gm: { value: number; sigma: number },
+  kg: { value: number; sigma: number },
+): { value: number; sigma: number } {
+  if (isMass(result.dimension)) {
+    if (isGM(unit.dimension)) return { value: gm.value / unit.scale, sigma: gm.sigma / unit.scale };
+    if (unit.gm !== undefined && (unit.gmRelativeUncertainty ?? 0) === 0) {
+      return { value: gm.value / unit.gm, sigma: gm.sigma / unit.gm };
+    }
+  }
+  return { value: kg.value / unit.scale, sigma: kg.sigma / unit.scale };
+}
+
 /** Display unit of a result: the published one when given, else the method's default. */
-function displayUnitFor(result: MethodResult, published: Quantity | undefined) {
-  if (published && sameDimension(published.unit.dimension, result.dimension) && findUnit(published.unit.id)) {
+function displayUnitFor(result: MethodResult, published: Quantity | undefined): Unit {
+  if (published && acceptsPublishedDimension(result.dimension, published.unit.dimension)) {
     return published.unit;
   }
   const u = findUnit(result.displayUnit);
@@ -166,8 +205,7 @@ export function auditMeasurement(objectId: string, method: MethodDefinition, m: 
       unit_si: unitSI.text,
       display_unit: unit.id,
       display_unit_latex: unit.latex,
-      value: value_si / unit.scale,
-      sigma: sigma / unit.scale,
+      ...inDisplayUnit(def, unit, { value: raw, sigma: fo.sigma }, { value: value_si, sigma }),
       budget,
     };
     if (mc && mc.draws > 0 && mc.samples[def.name]) {
@@ -186,10 +224,10 @@ export function auditMeasurement(objectId: string, method: MethodDefinition, m: 
     results[def.name] = entry;
 
     if (pub) {
-      if (!sameDimension(pub.unit.dimension, def.dimension)) {
+      if (!acceptsPublishedDimension(def.dimension, pub.unit.dimension)) {
         throw new Error(`published ${def.name} has dimension ${describeDimension(pub.unit.dimension)}: the loader should have refused it`);
       }
-      const s = pub.unit.scale;
+      const s = publishedScale(def, pub, K);
       const c = compare(
         { value: value_si, plus, minus },
         { kind: pub.kind, value: pub.value * s, plus: pub.plus * s, minus: pub.minus * s },
