@@ -50,6 +50,7 @@ export const UNITS: readonly Unit[] = Object.freeze([
   // length
   unit("m", "m", "\\mathrm{m}", LENGTH, 1, "SI metre", SI, ["meter", "metre", "meters", "metres"]),
   unit("km", "km", "\\mathrm{km}", LENGTH, 1e3, "1000 m", SI, ["kilometer", "kilometre", "kilometers", "kilometres"]),
+  unit("cm", "cm", "\\mathrm{cm}", LENGTH, 1e-2, "10⁻² m", SI, ["centimeter", "centimetre", "centimeters", "centimetres"]),
   unit("au", "au", "\\mathrm{au}", LENGTH, K.au.value, "149 597 870 700 m (exact)", K.au.source, ["AU", "ua", "UA"]),
   unit("pc", "pc", "\\mathrm{pc}", LENGTH, K.pc.value, "648000/π au (exact)", K.pc.source, ["parsec", "parsecs"]),
   unit("kpc", "kpc", "\\mathrm{kpc}", LENGTH, 1e3 * K.pc.value, "1000 pc", K.pc.source, ["kiloparsec", "kiloparsecs"]),

@@ -1,0 +1,3 @@
+export * from "./quantity.js";
+export * from "./parse.js";
+export * from "./format.js";
