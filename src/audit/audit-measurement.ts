@@ -290,11 +290,10 @@ function buildEquations(
     return unit.latex ? `${number}\\,${unit.latex}` : number;
   };
   const substituted = method.substituted(si, computed, fmt);
-  const out: EquationAudit[] = method.equations.map((eq, i) => ({
-    results: eq.results,
-    general: eq.latex,
-    substituted: substituted[i]?.latex ?? "",
-  }));
+  // an equation whose substituted form is empty does not apply to the inputs given
+  const out: EquationAudit[] = method.equations
+    .map((eq, i) => ({ results: eq.results, general: eq.latex, substituted: substituted[i]?.latex ?? "" }))
+    .filter((eq) => eq.substituted !== "");
   // the step from GM to solar masses needs no G; kilograms do
   for (const r of method.results) {
     if (!isMass(r.dimension) || !(r.name in computed)) continue;

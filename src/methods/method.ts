@@ -70,7 +70,11 @@ export interface MethodDefinition {
   compute(si: SIInputs): Record<string, number>;
   /** Analytic ∂result/∂slot for each computed result and each present slot. */
   partials(si: SIInputs): Record<string, Record<string, number>>;
-  /** The equations with the numbers substituted, LaTeX; `fmt` typesets one SI value of a slot or result. */
+  /**
+   * The equations with the numbers substituted, LaTeX; `fmt` typesets one SI value of a slot or result
+   * (mass slots and results are passed as GM). One entry per general equation, in the same order and
+   * with the same `results`; `latex` is "" where that equation does not apply to the inputs given.
+   */
   substituted(si: SIInputs, results: Readonly<Record<string, number>>, fmt: FormatNumber): MethodEquation[];
 }
 
