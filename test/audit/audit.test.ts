@@ -174,3 +174,33 @@ describe("audit of invented records against an independent computation", () => {
     expect(exitCodeFor(mixed)).toBe(2);
   });
 });
+
+describe("masses given as GM", () => {
+  it("accepts km3/s2 for a mass input and a published mass, and compares in GM", async () => {
+    const { loadRecordText } = await import("../../src/records/load.js");
+    const text = [
+      "name: Tarnwick Moon",
+      "measurements:",
+      "  - key: moon",
+      "    method: relative-orbit",
+      "    reference: { cite: \"Invented 2020\" }",
+      "    inputs:",
+      "      period: 10 ± 0.01 d",
+      "      semimajor_axis: 200000 ± 100 km",
+      "      secondary_mass: 1820 ± 15 km3/s2",
+      "    published:",
+      "      total_mass: 423100 ± 1500 km3/s2",
+    ].join("\n");
+    const { record, problems } = loadRecordText(text, "moon.yaml");
+    expect(problems).toEqual([]);
+    const r = auditRecords({ records: [record!], problems: [], files: ["moon.yaml"], filesWithErrors: [] }, { draws: 0 });
+    const m = r.objects[0].measurements[0];
+    const gmTotal = (4 * Math.PI ** 2 * 2e8 ** 3) / (10 * DAY) ** 2;
+    expect(Math.abs(m.results.total_mass.value_si / (gmTotal / G) - 1)).toBeLessThan(1e-9);
+    // shown in the published GM unit, read straight from GM (no G)
+    expect(m.results.total_mass.display_unit).toBe("km3/s2");
+    expect(m.results.total_mass.value).toBeCloseTo(gmTotal / 1e9, 6);
+    expect(m.results.primary_mass.value_si * G).toBeCloseTo(gmTotal - 1820e9, -3);
+    expect(m.comparisons.total_mass.z).toBeCloseTo((gmTotal / 1e9 - 423100) / 1500, 4);
+  });
+});
