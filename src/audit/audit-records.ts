@@ -6,6 +6,8 @@ import { auditMeasurement, type AuditOptions } from "./audit-measurement.js";
 import { DEFAULT_THRESHOLDS, worstStatus } from "./compare.js";
 import { STATUSES, type AuditReport, type MeasurementAudit, type ObjectAudit, type Status } from "./types.js";
 import { VERSION } from "../version.js";
+import { diagnose } from "../diagnosis/diagnose.js";
+import { combineObject } from "../combine/combine-object.js";
 
 export const DEFAULT_DRAWS = 20_000;
 
@@ -52,12 +54,13 @@ export function auditRecords(outcome: LoadOutcome, options: RunOptions = {}): Au
         });
         return;
       }
-      measurements.push(audit);
+      const diagnoses = diagnose(method, m, audit, resolved.thresholds, resolved.constants);
+      measurements.push(diagnoses.length > 0 ? { ...audit, diagnoses } : audit);
     });
     if (measurements.length === 0) continue;
     for (const m of measurements) counts[m.status]++;
     measurementCount += measurements.length;
-    objects.push({
+    const object = {
       id: record.id,
       name: record.name,
       file: record.file,
@@ -65,7 +68,8 @@ export function auditRecords(outcome: LoadOutcome, options: RunOptions = {}): Au
       ...(record.notes !== undefined ? { notes: record.notes } : {}),
       status: worstStatus(measurements.map((m) => m.status)),
       measurements,
-    });
+    };
+    objects.push({ ...object, combined: combineObject({ ...object, combined: {} }) });
   }
   problems.sort(
     (a, b) =>

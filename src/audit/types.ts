@@ -1,5 +1,7 @@
 import type { Problem } from "../problem.js";
 import type { QuantityKind } from "../quantity/quantity.js";
+import type { Diagnosis } from "../diagnosis/types.js";
+import type { CombinedValues } from "../combine/types.js";
 
 /** The shape of `steelyard check --json` and of the site's data. All *_si values in SI (kg, m, s, rad). */
 
@@ -119,6 +121,8 @@ export interface MeasurementAudit {
   readonly equations: readonly EquationAudit[];
   /** Seed used for the Monte Carlo draws (derived from object id and key). */
   readonly seed: number;
+  /** Likely causes, one per tension or discrepant comparison; absent when nothing is flagged. */
+  readonly diagnoses?: readonly Diagnosis[];
 }
 
 export interface ObjectAudit {
@@ -130,6 +134,8 @@ export interface ObjectAudit {
   /** Worst status over its measurements. */
   readonly status: Status;
   readonly measurements: readonly MeasurementAudit[];
+  /** Reference values per result, combined over the measurements with use: true. */
+  readonly combined: CombinedValues;
 }
 
 export interface AuditReport {

@@ -42,6 +42,19 @@ export function textReport(report: AuditReport): string {
   } else {
     out.push("No measurement could be audited.");
   }
+  const causes: string[] = [];
+  for (const o of report.objects) {
+    for (const m of o.measurements) {
+      for (const d of m.diagnoses ?? []) {
+        causes.push(`  ${o.id} ${m.key} ${d.result} (${d.status}):`);
+        if (d.unexplained) causes.push(`    ${d.summary}`);
+        for (const e of d.explained.slice(0, 3)) {
+          causes.push(`    - ${e.title}: ${e.description} (z after: ${e.z_after.toFixed(2)})`);
+        }
+      }
+    }
+  }
+  if (causes.length > 0) out.push("", "Likely causes (single slips that would reconcile the published value):", ...causes);
   if (report.problems.length > 0) {
     out.push("", `Problems (${report.problems.length}):`);
     for (const p of report.problems) {

@@ -1,0 +1,254 @@
+import type { AuditReport, MeasurementAudit, ObjectAudit } from "../audit/types.js";
+import type { Combined, CombinedValues } from "../combine/types.js";
+import { findUnit } from "../units/catalog.js";
+
+/**
+ * The reference table (combined values per object and result) as a VOTable
+ * 1.4 document (IVOA Recommendation, 2019-10-21), TABLEDATA serialisation:
+ * one TABLE per result, one row per object with a combined value. Units are
+ * written in VOUnit syntax (IVOA VOUnits 1.0) and columns carry UCD1+ words
+ * only where a word surely fits; other columns have none. No timestamps: the
+ * same audit gives the same bytes.
+ */
+
+/** VOTable 1.4 keeps the 1.3 namespace (the 1.4 schema's targetNamespace). */
+export const VOTABLE_NAMESPACE = "http://www.ivoa.net/xml/VOTable/v1.3";
+
+/** Catalogue unit id → VOUnit string (IVOA VOUnits 1.0). */
+const VOUNITS: Readonly<Record<string, string>> = {
+  Msun: "solMass",
+  Mjup: "jupiterMass",
+  Mearth: "earthMass",
+  kg: "kg",
+  g: "g",
+  m: "m",
+  km: "km",
+  au: "au",
+  pc: "pc",
+  kpc: "kpc",
+  Mpc: "Mpc",
+  R_sun: "solRad",
+  s: "s",
+  d: "d",
+  yr: "yr",
+  "km/s": "km/s",
+  "m/s": "m/s",
+  mas: "mas",
+  arcsec: "arcsec",
+  deg: "deg",
+};
+
+/** The VOUnit of a catalogue unit; undefined when it has none here (the column then says its unit in words). */
+export function voUnit(unitId: string): string | undefined {
+  return VOUNITS[unitId];
+}
+
+// XML 1.0 allows tab, newline, carriage return and U+0020..U+D7FF, U+E000..U+FFFD, U+10000..U+10FFFF.
+const NOT_XML = /[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu;
+
+/** Text made safe for XML element content and attribute values; characters XML cannot hold become U+FFFD. */
+export function xmlEscape(text: string): string {
+  return text
+    .replace(NOT_XML, "\uFFFD")
+    .replace(/&/g, "&amp;")
+    .replace(/</g, "&lt;")
+    .replace(/>/g, "&gt;")
+    .replace(/"/g, "&quot;")
+    .replace(/'/g, "&apos;");
+}
+
+type Datatype = "char" | "double" | "int" | "boolean";
+
+interface Column {
+  readonly name: string;
+  readonly datatype: Datatype;
+  readonly unit?: string;
+  readonly ucd?: string;
+  readonly description: string;
+}
+
+type Cell = string | number | boolean | null;
+
+function attributes(pairs: ReadonlyArray<readonly [string, string | undefined]>): string {
+  return pairs
+    .filter(([, v]) => v !== undefined)
+    .map(([k, v]) => ` ${k}="${xmlEscape(v!)}"`)
+    .join("");
+}
+
+function fieldXml(c: Column, indent: string): string {
+  const attrs = attributes([
+    ["name", c.name],
+    ["datatype", c.datatype],
+    ["arraysize", c.datatype === "char" ? "*" : undefined],
+    ["unit", c.unit],
+    ["ucd", c.ucd],
+  ]);
+  return `${indent}<FIELD${attrs}>\n${indent}  <DESCRIPTION>${xmlEscape(c.description)}</DESCRIPTION>\n${indent}</FIELD>`;
+}
+
+/** A TD's text: empty for a missing or non-finite number (the VOTable null of floating-point columns). */
+function cellText(value: Cell, datatype: Datatype): string {
+  if (value === null) return "";
+  if (datatype === "boolean") return value ? "T" : "F";
+  if (typeof value === "number") {
+    if (!Number.isFinite(value)) return "";
+    return datatype === "int" ? String(Math.trunc(value)) : String(value);
+  }
+  return xmlEscape(String(value));
+}
+
+const compareText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
+function uniqueSorted(values: Iterable<string | undefined>): string[] {
+  return [...new Set([...values].filter((v): v is string => typeof v === "string" && v.trim() !== ""))].sort(compareText);
+}
+
+interface Row {
+  readonly object: ObjectAudit;
+  readonly combined: Combined;
+}
+
+/** The unit most rows display; ties go to the first row by object id. */
+function tableUnit(rows: readonly Row[]): { id: string; scale: number } | undefined {
+  const counts = new Map<string, number>();
+  for (const r of rows) {
+    const id = r.combined.estimate!.display_unit;
+    counts.set(id, (counts.get(id) ?? 0) + 1);
+  }
+  let best: string | undefined;
+  for (const r of rows) {
+    const id = r.combined.estimate!.display_unit;
+    if (best === undefined || counts.get(id)! > counts.get(best)!) best = id;
+  }
+  const unit = best !== undefined ? findUnit(best) : undefined;
+  return unit ? { id: unit.id, scale: unit.scale } : undefined;
+}
+
+function tableXml(result: string, rows: readonly Row[], indent: string): string {
+  const unit = tableUnit(rows);
+  const scale = unit?.scale ?? 1;
+  const unitSI = rows[0].combined.estimate!.unit_si;
+  const isMass = unitSI === "kg";
+  const vo = unit ? voUnit(unit.id) : undefined;
+  const inUnit = unit ? (unit.id === "1" ? "as a plain number" : `in ${vo ?? `${unit.id} (no VOUnit form)`}`) : `in SI (${unitSI})`;
+  const valueUnit = unit && unit.id !== "1" ? vo : undefined;
+  const name = result.replace(/_/g, " ");
+
+  const columns: Column[] = [
+    { name: "object_id", datatype: "char", ucd: "meta.id;meta.main", description: "Object identifier in this table." },
+    { name: "object_name", datatype: "char", ucd: "meta.id", description: "Object name as recorded." },
+    { name: "value", datatype: "double", unit: valueUnit, ucd: isMass ? "phys.mass" : undefined, description: `Combined ${name}, ${inUnit}.` },
+    {
+      name: "sigma_plus", datatype: "double", unit: valueUnit, ucd: isMass ? "stat.error;phys.mass" : "stat.error",
+      description: "Upper 1-sigma uncertainty of the combined value, multiplied by the Birge ratio when it exceeds 1.",
+    },
+    {
+      name: "sigma_minus", datatype: "double", unit: valueUnit, ucd: isMass ? "stat.error;phys.mass" : "stat.error",
+      description: "Lower 1-sigma uncertainty of the combined value (positive), multiplied by the Birge ratio when it exceeds 1.",
+    },
+    { name: "measurements_combined", datatype: "int", ucd: "meta.number", description: "Number of measurements combined." },
+    { name: "chi2", datatype: "double", ucd: "stat.fit.chi2", description: "Chi-square of the combined measurements about the combined value." },
+    { name: "dof", datatype: "int", ucd: "stat.fit.dof", description: "Degrees of freedom: measurements combined minus one." },
+    { name: "birge_ratio", datatype: "double", description: "Birge ratio sqrt(chi2/dof); empty for a single measurement." },
+    { name: "sigma_scaled", datatype: "boolean", description: "True when the uncertainty was multiplied by the Birge ratio." },
+    {
+      name: "procedure", datatype: "char",
+      description: "weighted-mean: inverse-variance mean; linear-sigma: Barlow's linear-sigma likelihood for asymmetric uncertainties.",
+    },
+    {
+      name: "audit_status", datatype: "char",
+      description: "Worst comparison status of the object's measurements (consistent, tension, discrepant, not-compared). A flag is a prompt to reread the paper, not a verdict.",
+    },
+    { name: "measurement_keys", datatype: "char", description: "Keys of the measurements combined, separated by semicolons." },
+    { name: "references", datatype: "char", ucd: "meta.ref", description: "Citations of the measurements combined, separated by semicolons." },
+    { name: "bibcodes", datatype: "char", ucd: "meta.bib.bibcode", description: "Bibcodes of the measurements combined, separated by semicolons." },
+    { name: "dois", datatype: "char", ucd: "meta.ref.doi", description: "DOIs of the measurements combined, separated by semicolons." },
+    { name: "not_combined", datatype: "char", description: "Measurements with this result that were not combined, with the reason, separated by semicolons." },
+  ];
+
+  const trs = rows.map(({ object, combined }) => {
+    const e = combined.estimate!;
+    const byKey = new Map<string, MeasurementAudit>(object.measurements.map((m) => [m.key, m] as const));
+    const used = combined.inputs.map((i) => byKey.get(i.key)).filter((m): m is MeasurementAudit => m !== undefined);
+    const cells: Cell[] = [
+      object.id,
+      object.name,
+      e.value_si / scale,
+      e.sigma_plus_si / scale,
+      e.sigma_minus_si / scale,
+      combined.count,
+      combined.chi2,
+      combined.dof,
+      combined.birge_ratio,
+      combined.scaled,
+      combined.procedure,
+      object.status,
+      combined.inputs.map((i) => i.key).join("; "),
+      uniqueSorted(used.map((m) => m.reference.cite)).join("; "),
+      uniqueSorted(used.map((m) => m.reference.bibcode)).join("; "),
+      uniqueSorted(used.map((m) => m.reference.doi)).join("; "),
+      combined.excluded.map((x) => `${x.key}: ${x.reason}`).join("; "),
+    ];
+    const tds = cells.map((c, i) => `<TD>${cellText(c, columns[i].datatype)}</TD>`).join("");
+    return `${indent}      <TR>${tds}</TR>`;
+  });
+
+  const description =
+    `Combined ${name} per object: the weighted average of the recomputed values of the measurements in use, ` +
+    `${inUnit}.`;
+  return [
+    `${indent}<TABLE${attributes([["name", result], ["nrows", String(rows.length)]])}>`,
+    `${indent}  <DESCRIPTION>${xmlEscape(description)}</DESCRIPTION>`,
+    ...columns.map((c) => fieldXml(c, `${indent}  `)),
+    `${indent}  <DATA>`,
+    `${indent}    <TABLEDATA>`,
+    ...trs,
+    `${indent}    </TABLEDATA>`,
+    `${indent}  </DATA>`,
+    `${indent}</TABLE>`,
+  ].join("\n");
+}
+
+/**
+ * The reference table as VOTable text. `combined` is keyed by object id (as
+ * combineReport gives it); objects without a combined value for a result have
+ * no row in that result's table.
+ */
+export function referenceTableVOTable(report: AuditReport, combined: Readonly<Record<string, CombinedValues>>): string {
+  const objects = [...report.objects].sort((a, b) => compareText(a.id, b.id));
+  const results = new Set<string>();
+  for (const o of objects) for (const [name, c] of Object.entries(combined[o.id] ?? {})) if (c.estimate) results.add(name);
+
+  const tables: string[] = [];
+  for (const result of [...results].sort(compareText)) {
+    const rows: Row[] = [];
+    for (const o of objects) {
+      const c = combined[o.id]?.[result];
+      if (c?.estimate) rows.push({ object: o, combined: c });
+    }
+    if (rows.length > 0) tables.push(tableXml(result, rows, "    "));
+  }
+
+  const t = report.settings.thresholds;
+  const info = (name: string, value: string) => `  <INFO${attributes([["name", name], ["value", value]])}/>`;
+  const description =
+    "Reference table of dynamical masses: for each object and result, the combined value of the measurements in use, " +
+    "each recomputed from its published inputs. The audit compares each published value with what its own inputs give; " +
+    "a flag is a prompt to reread the paper, not a verdict.";
+  return [
+    '<?xml version="1.0" encoding="UTF-8"?>',
+    `<VOTABLE version="1.4" xmlns="${VOTABLE_NAMESPACE}">`,
+    `  <DESCRIPTION>${xmlEscape(description)}</DESCRIPTION>`,
+    info("tool", `${report.tool.name} ${report.tool.version}`),
+    info("constants", report.settings.constants),
+    info("tension_threshold", String(t.tension)),
+    info("discrepant_threshold", String(t.discrepant)),
+    `  <RESOURCE${attributes([["name", "reference-table"], ["type", "results"]])}>`,
+    // an audit with nothing combined gives an empty resource, which the schema allows
+    ...tables,
+    "  </RESOURCE>",
+    "</VOTABLE>",
+    "",
+  ].join("\n");
+}

@@ -1,0 +1,3 @@
+export * from "./types.js";
+export * from "./compare-releases.js";
+export * from "./read-audit-json.js";
