@@ -1,0 +1,194 @@
+import type { BudgetEntry, ComparisonAudit, ResultAudit } from "../audit/types.js";
+import { formatPlain, formatShare } from "./display.js";
+import { escapeHtml } from "./escape.js";
+import { displayScale } from "./unit-display.js";
+
+/**
+ * Small inline SVG charts. Every text piece goes through escapeHtml and every
+ * number through a fixed-decimal writer, so the returned markup is safe to
+ * insert as is. Colours come from the stylesheet (classes), so the charts
+ * follow the light, dark and print schemes; shapes and words tell the series
+ * apart, never colour alone.
+ */
+
+const n = (x: number): string => (Math.round(x * 10) / 10).toFixed(1).replace(/\.0$/, "");
+
+/** Horizontal bars: each source's share of the first-order variance, largest first. */
+export function budgetChart(entries: readonly BudgetEntry[], idPrefix: string, resultLabel: string): string {
+  const rows = [...entries].filter((e) => Number.isFinite(e.share)).sort((a, b) => b.share - a.share);
+  const rowHeight = 20;
+  const labelWidth = 130;
+  const barWidth = 170;
+  const width = labelWidth + barWidth + 60;
+  const height = Math.max(rows.length, 1) * rowHeight + 4;
+  const titleId = `${idPrefix}-title`;
+  const parts: string[] = [
+    `<svg class="chart budget-chart" id="${escapeHtml(idPrefix)}" viewBox="0 0 ${width} ${height}" role="img" aria-labelledby="${escapeHtml(titleId)}">`,
+    `<title id="${escapeHtml(titleId)}">${escapeHtml(`Share of the variance of ${resultLabel}, by source`)}</title>`,
+  ];
+  if (rows.length === 0) {
+    parts.push(`<text class="chart-label" x="0" y="14">no uncertainty to share out</text>`);
+  }
+  rows.forEach((e, i) => {
+    const y = i * rowHeight + 2;
+    const share = Math.min(Math.max(e.share, 0), 1);
+    const w = share * barWidth;
+    parts.push(
+      `<g class="budget-row" data-source="${escapeHtml(e.source)}" data-share="${e.share}">`,
+      `<text class="chart-label" x="${labelWidth - 6}" y="${n(y + 13)}" text-anchor="end">${escapeHtml(e.label)}</text>`,
+      `<rect class="chart-track" x="${labelWidth}" y="${n(y + 3)}" width="${barWidth}" height="12"></rect>`,
+      `<rect class="chart-bar" x="${labelWidth}" y="${n(y + 3)}" width="${n(w)}" height="12"></rect>`,
+      `<text class="chart-value" x="${labelWidth + barWidth + 6}" y="${n(y + 13)}">${escapeHtml(formatShare(e.share))}</text>`,
+      `</g>`,
+    );
+  });
+  parts.push(`</svg>`);
+  return parts.join("");
+}
+
+/** One series of the comparison chart, in the display unit. */
+interface Series {
+  readonly label: string;
+  readonly shape: "square" | "circle" | "diamond";
+  readonly kind: "interval" | "upper-limit" | "lower-limit" | "point";
+  readonly value: number;
+  readonly low: number;
+  readonly high: number;
+  readonly cls: string;
+}
+
+function niceStep(span: number): number {
+  const raw = span / 4;
+  const p = 10 ** Math.floor(Math.log10(raw));
+  const f = raw / p;
+  return (f <= 1 ? 1 : f <= 2 ? 2 : f <= 2.5 ? 2.5 : f <= 5 ? 5 : 10) * p;
+}
+
+/** Tick text with just enough digits to tell neighbouring ticks apart. */
+function tickLabel(t: number, step: number, magnitude: number): string {
+  const stepExp = Math.floor(Math.log10(step));
+  const extra = Math.abs(step / 10 ** stepExp - 2.5) < 1e-9 ? 1 : 0;
+  const magExp = Math.floor(Math.log10(magnitude));
+  if (magExp >= -3 && magExp <= 4) {
+    const decimals = Math.max(0, -stepExp + extra);
+    return t.toFixed(decimals).replace(/^-/, "\u2212").replace(/^\u22120(\.0*)?$/, (z) => z.slice(1));
+  }
+  return formatPlain(t, Math.max(1, magExp - stepExp + 1 + extra));
+}
+
+function marker(shape: Series["shape"], x: number, y: number, cls: string): string {
+  if (shape === "circle") return `<circle class="${cls}" cx="${n(x)}" cy="${n(y)}" r="4.5"></circle>`;
+  if (shape === "square") return `<rect class="${cls}" x="${n(x - 4)}" y="${n(y - 4)}" width="8" height="8"></rect>`;
+  return `<path class="${cls}" d="M${n(x)} ${n(y - 5.5)}L${n(x + 5.5)} ${n(y)}L${n(x)} ${n(y + 5.5)}L${n(x - 5.5)} ${n(y)}Z"></path>`;
+}
+
+/**
+ * Published against recomputed values with their intervals on one axis: the
+ * published value (square), the first-order result ± 1σ (circle), and the
+ * Monte Carlo median with its 16th–84th percentiles (diamond).
+ */
+export function comparisonChart(result: ResultAudit, comparison: ComparisonAudit, idPrefix: string, unitSymbol: string): string {
+  const scale = displayScale(result);
+  const series: Series[] = [];
+  const pv = comparison.published_si / scale;
+  if (comparison.published_kind === "upper-limit" || comparison.published_kind === "lower-limit") {
+    series.push({ label: "published", shape: "square", kind: comparison.published_kind, value: pv, low: pv, high: pv, cls: "series-published" });
+  } else {
+    series.push({
+      label: "published",
+      shape: "square",
+      kind: comparison.published_kind === "exact" ? "point" : "interval",
+      value: pv,
+      low: (comparison.published_si - comparison.published_minus_si) / scale,
+      high: (comparison.published_si + comparison.published_plus_si) / scale,
+      cls: "series-published",
+    });
+  }
+  series.push({
+    label: "first order",
+    shape: "circle",
+    kind: "interval",
+    value: result.value_si / scale,
+    low: (result.value_si - result.sigma_minus_si) / scale,
+    high: (result.value_si + result.sigma_plus_si) / scale,
+    cls: "series-first-order",
+  });
+  if (result.mc) {
+    series.push({
+      label: "Monte Carlo",
+      shape: "diamond",
+      kind: "interval",
+      value: result.mc.median_si / scale,
+      low: result.mc.p16_si / scale,
+      high: result.mc.p84_si / scale,
+      cls: "series-monte-carlo",
+    });
+  }
+  const ends = series.flatMap((s) => [s.low, s.high, s.value]).filter(Number.isFinite);
+  let lo = Math.min(...ends);
+  let hi = Math.max(...ends);
+  if (!(hi > lo)) {
+    const pad = Math.abs(lo) * 0.05 || 1;
+    lo -= pad;
+    hi += pad;
+  }
+  const span = hi - lo;
+  lo -= span * 0.12;
+  hi += span * 0.12;
+
+  const labelWidth = 100;
+  const plotWidth = 240;
+  const width = labelWidth + plotWidth + 20;
+  const rowHeight = 24;
+  const top = 6;
+  const axisY = top + series.length * rowHeight + 4;
+  const height = axisY + 30;
+  const xOf = (v: number): number => labelWidth + ((v - lo) / (hi - lo)) * plotWidth;
+  const titleId = `${idPrefix}-title`;
+  const parts: string[] = [
+    `<svg class="chart comparison-chart" id="${escapeHtml(idPrefix)}" viewBox="0 0 ${width} ${height}" role="img" aria-labelledby="${escapeHtml(titleId)}">`,
+    `<title id="${escapeHtml(titleId)}">${escapeHtml(`Published and recomputed ${result.name.replace(/_/g, " ")} with 1σ intervals${unitSymbol ? ` (${unitSymbol})` : ""}`)}</title>`,
+  ];
+  series.forEach((s, i) => {
+    const y = top + i * rowHeight + rowHeight / 2;
+    parts.push(`<g class="comparison-row ${s.cls}" data-series="${escapeHtml(s.label)}" data-value="${s.value}" data-low="${s.low}" data-high="${s.high}">`);
+    parts.push(`<text class="chart-label" x="${labelWidth - 8}" y="${n(y + 4)}" text-anchor="end">${escapeHtml(s.label)}</text>`);
+    if (s.kind === "interval") {
+      const x1 = xOf(s.low);
+      const x2 = xOf(s.high);
+      parts.push(
+        `<line class="chart-whisker" x1="${n(x1)}" y1="${n(y)}" x2="${n(x2)}" y2="${n(y)}"></line>`,
+        `<line class="chart-whisker" x1="${n(x1)}" y1="${n(y - 5)}" x2="${n(x1)}" y2="${n(y + 5)}"></line>`,
+        `<line class="chart-whisker" x1="${n(x2)}" y1="${n(y - 5)}" x2="${n(x2)}" y2="${n(y + 5)}"></line>`,
+      );
+    } else if (s.kind === "upper-limit" || s.kind === "lower-limit") {
+      const x = xOf(s.value);
+      const end = s.kind === "upper-limit" ? labelWidth + 4 : labelWidth + plotWidth - 4;
+      const dir = s.kind === "upper-limit" ? 1 : -1;
+      parts.push(
+        `<line class="chart-whisker" x1="${n(x)}" y1="${n(y)}" x2="${n(end)}" y2="${n(y)}"></line>`,
+        `<path class="chart-whisker" d="M${n(end + dir * 6)} ${n(y - 4)}L${n(end)} ${n(y)}L${n(end + dir * 6)} ${n(y + 4)}"></path>`,
+      );
+    }
+    parts.push(marker(s.shape, xOf(s.value), y, "chart-marker"));
+    parts.push(`</g>`);
+  });
+  // axis with a few round ticks
+  parts.push(`<line class="chart-axis" x1="${labelWidth}" y1="${axisY}" x2="${labelWidth + plotWidth}" y2="${axisY}"></line>`);
+  const step = niceStep(hi - lo);
+  if (Number.isFinite(step) && step > 0) {
+    for (let t = Math.ceil(lo / step) * step, k = 0; t <= hi && k < 12; t += step, k++) {
+      const x = xOf(t);
+      const label = tickLabel(Math.abs(t) < step * 1e-9 ? 0 : t, step, Math.max(Math.abs(lo), Math.abs(hi)));
+      parts.push(
+        `<line class="chart-axis" x1="${n(x)}" y1="${axisY}" x2="${n(x)}" y2="${axisY + 4}"></line>`,
+        `<text class="chart-tick" x="${n(x)}" y="${axisY + 16}" text-anchor="middle">${escapeHtml(label)}</text>`,
+      );
+    }
+  }
+  if (unitSymbol) {
+    parts.push(`<text class="chart-tick" x="${labelWidth + plotWidth}" y="${axisY + 28}" text-anchor="end">${escapeHtml(unitSymbol)}</text>`);
+  }
+  parts.push(`</svg>`);
+  return parts.join("");
+}

@@ -1,0 +1,20 @@
+/**
+ * CSV as RFC 4180 describes it: CRLF line ends, a header line, and a field in
+ * double quotes (inner quotes doubled) whenever it holds a comma, a quote, CR
+ * or LF. Numbers are written with JavaScript's shortest round-trip form, so a
+ * reader gets back exactly the number in the JSON downloads; null is empty.
+ */
+export type CsvValue = string | number | boolean | null | undefined;
+
+export function csvField(value: CsvValue): string {
+  if (value === null || value === undefined) return "";
+  if (typeof value === "number") return Number.isFinite(value) ? String(value) : "";
+  const text = String(value);
+  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
+}
+
+export function toCsv<T>(columns: ReadonlyArray<keyof T & string>, rows: readonly T[]): string {
+  const lines = [columns.map((c) => csvField(c)).join(",")];
+  for (const row of rows) lines.push(columns.map((c) => csvField(row[c] as CsvValue)).join(","));
+  return lines.join("\r\n") + "\r\n";
+}

@@ -1,0 +1,74 @@
+import type { AuditReport, ObjectAudit, Status } from "../audit/types.js";
+import { STATUSES } from "../audit/types.js";
+import { formatByKind, formatWithSigma, formatZ, withUnit } from "./display.js";
+import { headlineOf } from "./headline.js";
+import type { MethodLookup } from "./object-view.js";
+import { plainName } from "./object-view.js";
+import { statusView, type StatusView } from "./status.js";
+import { tableRow, type TableRow } from "./table.js";
+import { displayScale, unitSymbol } from "./unit-display.js";
+
+/** One row of the table on the home page: the download row plus its printed forms and sort keys. */
+export interface HomeRow {
+  readonly row: TableRow;
+  readonly status: StatusView;
+  readonly aliases: string;
+  readonly resultLabel: string;
+  readonly recomputed: string;
+  readonly published: string;
+  readonly z: string;
+  readonly methodTitle: string;
+  readonly measurementAnchor: string;
+  /** Sort keys for the table script, as attribute text: SI value, |z| ("" when there is none). */
+  readonly sortMass: string;
+  readonly sortZ: string;
+}
+
+export interface StatusCount {
+  readonly status: StatusView;
+  readonly objects: number;
+  readonly measurements: number;
+}
+
+export function homeRow(obj: ObjectAudit, lookup: MethodLookup): HomeRow | undefined {
+  const row = tableRow(obj);
+  const h = headlineOf(obj);
+  if (!row || !h) return undefined;
+  const unit = unitSymbol(row.unit);
+  const r = h.result;
+  const scale = displayScale(r);
+  const c = h.comparison;
+  return {
+    row,
+    status: statusView(obj.status),
+    aliases: obj.aliases.join(", "),
+    resultLabel: plainName(row.result),
+    recomputed: withUnit(formatWithSigma(r.value, r.sigma_plus_si / scale, r.sigma_minus_si / scale), unit),
+    published: c
+      ? withUnit(formatByKind(c.published_kind, c.published_si / scale, c.published_plus_si / scale, c.published_minus_si / scale), unit)
+      : "",
+    z: c ? formatZ(c.z) : "",
+    methodTitle: lookup(row.method)?.title ?? row.method,
+    measurementAnchor: `measurement-${row.measurement}`,
+    sortMass: String(row.recomputed_si),
+    sortZ: c && !Number.isNaN(c.z) ? String(Math.abs(c.z)) : "",
+  };
+}
+
+export function homeRows(report: AuditReport, lookup: MethodLookup): HomeRow[] {
+  const out: HomeRow[] = [];
+  for (const obj of report.objects) {
+    const row = homeRow(obj, lookup);
+    if (row) out.push(row);
+  }
+  return out;
+}
+
+/** Objects (by their worst status) and measurements in each status, most serious first. */
+export function statusCounts(report: AuditReport): StatusCount[] {
+  const objects = Object.fromEntries(STATUSES.map((s) => [s, 0])) as Record<Status, number>;
+  for (const o of report.objects) objects[o.status]++;
+  return [...STATUSES]
+    .sort((a, b) => statusView(b).rank - statusView(a).rank)
+    .map((s) => ({ status: statusView(s), objects: objects[s], measurements: report.summary.status_counts[s] ?? 0 }));
+}

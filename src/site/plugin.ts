@@ -1,0 +1,113 @@
+import path from "node:path";
+import { runAudit } from "../audit/index.js";
+import type { AuditReport } from "../audit/types.js";
+import { ALL_CONSTANTS } from "../constants/sets.js";
+import { METHODS } from "../methods/index.js";
+import { normalizeBasePath } from "./base-path.js";
+import { DOWNLOADS } from "./downloads.js";
+import type { EleventyConfigApi } from "./eleventy-config.js";
+import { takePreparedSite } from "./handoff.js";
+import { CONTENT_DIR, DEMO_RECORDS, KATEX_DIST } from "./paths.js";
+import { buildSiteData, type SiteData } from "./site-data.js";
+import { NUNJUCKS_OPTIONS, writeObjectPages } from "./object-pages.js";
+
+export interface SteelyardPluginOptions {
+  /** Folder of YAML records to audit. Default: the demo records in content/records. */
+  readonly recordsDir?: string;
+  /** Folder the site is served from, "/" or "/prefix/". Default "/". */
+  readonly basePath?: string;
+  /** An audit already run; when given, the records folder is not read. */
+  readonly report?: AuditReport;
+  /** Monte Carlo draws when the plugin runs the audit itself. */
+  readonly draws?: number;
+}
+
+interface ResolvedOptions {
+  readonly recordsDir: string;
+  readonly basePath: string;
+  readonly report?: AuditReport;
+  readonly draws?: number;
+}
+
+function resolveOptions(options: SteelyardPluginOptions): ResolvedOptions {
+  const prepared = takePreparedSite();
+  const rawBase = prepared?.basePath ?? options.basePath ?? "/";
+  const base = normalizeBasePath(rawBase);
+  if (!base.ok) {
+    const i = base.issues[0];
+    throw new Error(`steelyard site: ${i.message}; ${i.hint ?? ""}`);
+  }
+  const report = prepared?.report ?? options.report;
+  const out: { -readonly [K in keyof ResolvedOptions]: ResolvedOptions[K] } = {
+    recordsDir: path.resolve(prepared?.recordsDir ?? options.recordsDir ?? DEMO_RECORDS),
+    basePath: base.value,
+  };
+  if (report !== undefined) out.report = report;
+  if (options.draws !== undefined) out.draws = options.draws;
+  return out;
+}
+
+/**
+ * The steelyard site as one Eleventy plugin: the audit as global data
+ * `steelyard`, the downloads as virtual templates, one audit page per object
+ * (written after the build), and the stylesheet, table script and KaTeX's
+ * stylesheet and fonts as passthrough copies. Pages and layouts live in the
+ * package's content/ folder.
+ */
+export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: SteelyardPluginOptions = {}): void {
+  const resolved = resolveOptions(options);
+  const { basePath } = resolved;
+
+  let reportPromise: Promise<AuditReport> | undefined;
+  const report = (): Promise<AuditReport> => {
+    reportPromise ??= resolved.report
+      ? Promise.resolve(resolved.report)
+      : runAudit(resolved.recordsDir, resolved.draws !== undefined ? { draws: resolved.draws } : {});
+    return reportPromise;
+  };
+  let dataPromise: Promise<SiteData> | undefined;
+  const siteData = (): Promise<SiteData> => {
+    dataPromise ??= report().then((r) => buildSiteData({ report: r, basePath, methods: METHODS, constants: ALL_CONSTANTS }));
+    return dataPromise;
+  };
+
+  eleventyConfig.setNunjucksEnvironmentOptions({ ...NUNJUCKS_OPTIONS });
+  eleventyConfig.setTemplateFormats(["njk", "11ty.js"]);
+  // the demo records sit inside the pages folder; they are data, not pages
+  eleventyConfig.ignores.add(path.join(CONTENT_DIR, "records", "**"));
+
+  eleventyConfig.addGlobalData("steelyard", () => siteData());
+  // under --serve or --watch, every rebuild audits the records again
+  eleventyConfig.addWatchTarget?.(resolved.recordsDir);
+  eleventyConfig.on("eleventy.before", () => {
+    if (resolved.report === undefined) {
+      reportPromise = undefined;
+      dataPromise = undefined;
+    }
+  });
+
+  // No filters: Eleventy reuses compiled templates (bound to the first build's
+  // filters) across builds in one process, so whatever depends on the build,
+  // such as the base path, is read from `steelyard` instead.
+
+  // one page per object, written after Eleventy's own pages (see object-pages.ts)
+  eleventyConfig.on("eleventy.after", async (event: { directories?: { output?: string }; outputMode?: string }) => {
+    const outDir = event.directories?.output;
+    if (event.outputMode !== "fs" || !outDir) return;
+    await writeObjectPages(await siteData(), { includesDir: path.join(CONTENT_DIR, "_includes"), outDir });
+  });
+
+  for (const d of DOWNLOADS) {
+    eleventyConfig.addTemplate(
+      `downloads/${d.key}.11ty.js`,
+      { render: async () => d.render(await report()) },
+      { permalink: d.path, eleventyExcludeFromCollections: true },
+    );
+  }
+
+  eleventyConfig.addPassthroughCopy({ [path.join(CONTENT_DIR, "assets")]: "assets" });
+  eleventyConfig.addPassthroughCopy({ [path.join(KATEX_DIST, "katex.min.css")]: "assets/katex/katex.min.css" });
+  eleventyConfig.addPassthroughCopy({ [path.join(KATEX_DIST, "fonts")]: "assets/katex/fonts" });
+}
+
+export default steelyardPlugin;

@@ -1,0 +1,63 @@
+import type { AuditReport, ObjectAudit } from "../audit/types.js";
+import type { Constant } from "../constants/constant.js";
+import type { MethodDefinition } from "../methods/method.js";
+import { underBase } from "./base-path.js";
+import { constantsView, type ConstantView } from "./constants-view.js";
+import { DOWNLOADS } from "./downloads.js";
+import { homeRows, statusCounts, type HomeRow, type StatusCount } from "./home-view.js";
+import { methodsView, type MethodView } from "./methods-view.js";
+import { objectPageView, type MethodLookup, type ObjectPageView } from "./object-view.js";
+import { problemsByFile, problemsView, type ProblemsView } from "./problems-view.js";
+import { STATUSES } from "../audit/types.js";
+import { statusView, type StatusView } from "./status.js";
+
+/** Everything the pages read, as the global data value `steelyard`. */
+export interface SiteData {
+  readonly basePath: string;
+  readonly version: string;
+  readonly settings: AuditReport["settings"];
+  readonly summary: AuditReport["summary"];
+  readonly counts: readonly StatusCount[];
+  readonly statuses: readonly StatusView[];
+  readonly rows: readonly HomeRow[];
+  /** The report's objects, for one page each. */
+  readonly objects: readonly ObjectAudit[];
+  readonly problems: ProblemsView;
+  readonly methods: readonly MethodView[];
+  readonly constants: readonly ConstantView[];
+  readonly downloads: ReadonlyArray<{ readonly key: string; readonly path: string; readonly title: string; readonly format: string }>;
+  /** The audit page of one object (built when its page is rendered). */
+  objectPage(obj: ObjectAudit): ObjectPageView;
+  /** A site path under the base path: {{ steelyard.link("objects/x/") }}. */
+  link(sitePath: string): string;
+}
+
+export interface SiteInputs {
+  readonly report: AuditReport;
+  readonly basePath: string;
+  readonly methods: readonly MethodDefinition[];
+  readonly constants: readonly Constant[];
+}
+
+export function buildSiteData(input: SiteInputs): SiteData {
+  const { report } = input;
+  const byId = new Map(input.methods.map((m) => [m.id, m]));
+  const lookup: MethodLookup = (id) => byId.get(id);
+  const byFile = problemsByFile(report.problems);
+  return Object.freeze({
+    basePath: input.basePath,
+    version: report.tool.version,
+    settings: report.settings,
+    summary: report.summary,
+    counts: statusCounts(report),
+    statuses: [...STATUSES].map(statusView).sort((a, b) => b.rank - a.rank),
+    rows: homeRows(report, lookup),
+    objects: report.objects,
+    problems: problemsView(report),
+    methods: methodsView(input.methods),
+    constants: constantsView(input.constants),
+    downloads: DOWNLOADS.map(({ key, path, title, format }) => ({ key, path, title, format })),
+    objectPage: (obj: ObjectAudit) => objectPageView(obj, lookup, byFile.get(obj.file) ?? []),
+    link: (sitePath: string) => underBase(input.basePath, String(sitePath)),
+  });
+}
