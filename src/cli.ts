@@ -9,6 +9,7 @@ const USAGE = `steelyard ${VERSION}: recompute published dynamical masses and au
 Usage:
   steelyard check [RECORDS_DIR] [--json] [--draws N] [--tension Z] [--discrepant Z]
   steelyard build [RECORDS_DIR] [--out DIR] [--base-path /prefix/] [--draws N] [--exit-zero]
+                  [--compare-to PREVIOUS_AUDIT_JSON]
   steelyard help | --help
   steelyard --version
 
@@ -16,6 +17,9 @@ RECORDS_DIR defaults to content/records. Exit codes: 0 when nothing is discrepan
 record has problems; 1 when a result is discrepant; 2 when any record has problems (the
 valid records are still audited and reported). build --exit-zero exits 0 whenever the site
 was written, whatever the audit found (the demo table shows every status on purpose).
+build --compare-to adds a page of what changed since the previous release, read from
+that release's downloads/audit.json (or steelyard check --json); a file that cannot be
+used is reported on that page and here, the site is still written, and the exit code is 2.
 `;
 
 interface Parsed {
@@ -115,6 +119,10 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
   const options = { ...(typeof draws === "number" ? { draws } : {}), thresholds };
 
   if (command === "check") {
+    if (flags.has("--compare-to")) {
+      io.err(`steelyard: --compare-to is an option of build (the changes page of the site)\n`);
+      return 2;
+    }
     const report = await runAudit(recordsDir, options);
     io.out(flags.has("--json") ? JSON.stringify(report, null, 2) + "\n" : textReport(report));
     return exitCodeFor(report);
@@ -124,7 +132,7 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
   const basePath = String(flags.get("--base-path") ?? "/");
   const compareTo = flags.get("--compare-to");
   const { buildSite } = await import("./site/build.js");
-  const { report, pages } = await buildSite({
+  const { report, pages, compareProblems } = await buildSite({
     recordsDir,
     outDir,
     basePath,
@@ -137,5 +145,7 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
     `Wrote ${pages} pages to ${outDir}: ${s.objects} objects, ${s.measurements} measurements, ` +
       `${report.problems.length} problems in ${s.files_with_problems} files.\n`,
   );
+  for (const p of compareProblems) io.err(`steelyard: --compare-to: ${p.message}${p.hint ? ` (${p.hint})` : ""}\n`);
+  if (compareProblems.length > 0) return 2;
   return flags.has("--exit-zero") ? 0 : exitCodeFor(report);
 }

@@ -192,3 +192,112 @@ export function comparisonChart(result: ResultAudit, comparison: ComparisonAudit
   parts.push(`</svg>`);
   return parts.join("");
 }
+
+/** One measurement in a forest chart, in the display unit. */
+export interface ForestRow {
+  readonly key: string;
+  /** Combined into the reference value (drawn filled) or not (hollow, greyed, labelled). */
+  readonly used: boolean;
+  readonly value: number;
+  /** value − σ₋ and value + σ₊; equal to value when there is no uncertainty. */
+  readonly low: number;
+  readonly high: number;
+}
+
+/** The combined value and its 1σ interval, in the display unit. */
+export interface ForestBand {
+  readonly value: number;
+  readonly low: number;
+  readonly high: number;
+}
+
+const FOREST_LABEL_CHARS = 24;
+
+function shortLabel(text: string): string {
+  return text.length > FOREST_LABEL_CHARS ? `${text.slice(0, FOREST_LABEL_CHARS - 1)}\u2026` : text;
+}
+
+/**
+ * A forest chart: one row per measurement with its recomputed value and its
+ * (asymmetric) 1σ error bar, and the combined value as a shaded vertical band
+ * (its 1σ interval) with a line at the value. Measurements that were not
+ * combined are drawn hollow and greyed, and their label says so.
+ */
+export function forestChart(rows: readonly ForestRow[], band: ForestBand | null, idPrefix: string, title: string, unitSymbol: string): string {
+  const shown = rows.filter((r) => Number.isFinite(r.value));
+  const ends = shown.flatMap((r) => [r.low, r.high, r.value]);
+  if (band) ends.push(band.low, band.high, band.value);
+  const finite = ends.filter(Number.isFinite);
+  let lo = finite.length > 0 ? Math.min(...finite) : 0;
+  let hi = finite.length > 0 ? Math.max(...finite) : 1;
+  if (!(hi > lo)) {
+    const pad = Math.abs(lo) * 0.05 || 1;
+    lo -= pad;
+    hi += pad;
+  }
+  const span = hi - lo;
+  lo -= span * 0.08;
+  hi += span * 0.08;
+
+  const labelWidth = 150;
+  const plotWidth = 240;
+  const width = labelWidth + plotWidth + 20;
+  const rowHeight = 22;
+  const top = 6;
+  const plotBottom = top + Math.max(shown.length, 1) * rowHeight;
+  const axisY = plotBottom + 4;
+  const height = axisY + 30;
+  const xOf = (v: number): number => labelWidth + ((v - lo) / (hi - lo)) * plotWidth;
+  const titleId = `${idPrefix}-title`;
+  const parts: string[] = [
+    `<svg class="chart forest-chart" id="${escapeHtml(idPrefix)}" viewBox="0 0 ${width} ${height}" role="img" aria-labelledby="${escapeHtml(titleId)}">`,
+    `<title id="${escapeHtml(titleId)}">${escapeHtml(title)}</title>`,
+  ];
+  if (band) {
+    const x1 = xOf(Math.min(band.low, band.high));
+    const x2 = xOf(Math.max(band.low, band.high));
+    parts.push(
+      `<g class="forest-combined" data-value="${band.value}" data-low="${band.low}" data-high="${band.high}">`,
+      `<rect class="forest-band" x="${n(x1)}" y="${top}" width="${n(Math.max(x2 - x1, 0.5))}" height="${plotBottom - top}"></rect>`,
+      `<line class="forest-centre" x1="${n(xOf(band.value))}" y1="${top}" x2="${n(xOf(band.value))}" y2="${plotBottom}"></line>`,
+      `</g>`,
+    );
+  }
+  shown.forEach((r, i) => {
+    const y = top + i * rowHeight + rowHeight / 2;
+    const label = r.used ? r.key : `${r.key} (not used)`;
+    parts.push(
+      `<g class="forest-row ${r.used ? "forest-used" : "forest-excluded"}" data-key="${escapeHtml(r.key)}" data-used="${r.used}" data-value="${r.value}" data-low="${r.low}" data-high="${r.high}">`,
+      `<title>${escapeHtml(label)}</title>`,
+      `<text class="chart-label" x="${labelWidth - 8}" y="${n(y + 4)}" text-anchor="end">${escapeHtml(shortLabel(label))}</text>`,
+    );
+    if (r.high > r.low) {
+      const x1 = xOf(r.low);
+      const x2 = xOf(r.high);
+      parts.push(
+        `<line class="chart-whisker" x1="${n(x1)}" y1="${n(y)}" x2="${n(x2)}" y2="${n(y)}"></line>`,
+        `<line class="chart-whisker" x1="${n(x1)}" y1="${n(y - 5)}" x2="${n(x1)}" y2="${n(y + 5)}"></line>`,
+        `<line class="chart-whisker" x1="${n(x2)}" y1="${n(y - 5)}" x2="${n(x2)}" y2="${n(y + 5)}"></line>`,
+      );
+    }
+    parts.push(`<circle class="${r.used ? "chart-marker" : "chart-marker-hollow"}" cx="${n(xOf(r.value))}" cy="${n(y)}" r="4.5"></circle>`);
+    parts.push(`</g>`);
+  });
+  parts.push(`<line class="chart-axis" x1="${labelWidth}" y1="${axisY}" x2="${labelWidth + plotWidth}" y2="${axisY}"></line>`);
+  const step = niceStep(hi - lo);
+  if (Number.isFinite(step) && step > 0) {
+    for (let t = Math.ceil(lo / step) * step, k = 0; t <= hi && k < 12; t += step, k++) {
+      const x = xOf(t);
+      const label = tickLabel(Math.abs(t) < step * 1e-9 ? 0 : t, step, Math.max(Math.abs(lo), Math.abs(hi)));
+      parts.push(
+        `<line class="chart-axis" x1="${n(x)}" y1="${axisY}" x2="${n(x)}" y2="${axisY + 4}"></line>`,
+        `<text class="chart-tick" x="${n(x)}" y="${axisY + 16}" text-anchor="middle">${escapeHtml(label)}</text>`,
+      );
+    }
+  }
+  if (unitSymbol) {
+    parts.push(`<text class="chart-tick" x="${labelWidth + plotWidth}" y="${axisY + 28}" text-anchor="end">${escapeHtml(unitSymbol)}</text>`);
+  }
+  parts.push(`</svg>`);
+  return parts.join("");
+}

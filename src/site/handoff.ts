@@ -1,4 +1,5 @@
 import type { AuditReport } from "../audit/types.js";
+import type { PreviousAudit } from "./changes-view.js";
 
 /**
  * buildSite runs the audit once, then has Eleventy load the configuration
@@ -10,6 +11,8 @@ export interface PreparedSite {
   readonly report: AuditReport;
   readonly basePath: string;
   readonly recordsDir?: string;
+  /** The previous release's audit, already read, for the changes page. */
+  readonly previous?: PreviousAudit;
 }
 
 const SLOT = Symbol.for("steelyard.site.prepared");

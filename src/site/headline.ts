@@ -1,4 +1,5 @@
 import type { ComparisonAudit, MeasurementAudit, ObjectAudit, ResultAudit } from "../audit/types.js";
+import type { Combined } from "../combine/types.js";
 
 /** The one result that stands for an object in the reference table. */
 export interface Headline {
@@ -37,4 +38,18 @@ export function headlineOf(obj: ObjectAudit): Headline | undefined {
     if (first) return { measurement: m, result: first };
   }
   return undefined;
+}
+
+/**
+ * The combined reference value the table shows for the headline's result in
+ * place of the one measurement's value: when it combines two or more
+ * measurements, or when its one measurement is another than the headline's
+ * (the headline's is not in use). Undefined when the measurement's own value
+ * stands (nothing combined, or the combination is that measurement alone).
+ */
+export function headlineCombined(obj: ObjectAudit, h: Headline): Combined | undefined {
+  const c = obj.combined?.[h.result.name];
+  if (!c || !c.estimate || c.count === 0) return undefined;
+  if (c.count === 1 && c.inputs[0]?.key === h.measurement.key) return undefined;
+  return c;
 }

@@ -1,7 +1,8 @@
 import type { AuditReport, ObjectAudit, Status } from "../audit/types.js";
 import { STATUSES } from "../audit/types.js";
 import { formatByKind, formatWithSigma, formatZ, withUnit } from "./display.js";
-import { headlineOf } from "./headline.js";
+import { headlineCombined, headlineOf } from "./headline.js";
+import { combinedValueText } from "./combined-view.js";
 import type { MethodLookup } from "./object-view.js";
 import { plainName } from "./object-view.js";
 import { statusView, type StatusView } from "./status.js";
@@ -14,7 +15,10 @@ export interface HomeRow {
   readonly status: StatusView;
   readonly aliases: string;
   readonly resultLabel: string;
+  /** The combined reference value where it stands for the object (see headlineCombined), else the headline measurement's. */
   readonly recomputed: string;
+  /** "combined over 3", "from orbit-2019" when the value is a combined one; "" when it is the headline measurement's. */
+  readonly recomputedNote: string;
   readonly published: string;
   readonly z: string;
   readonly methodTitle: string;
@@ -38,19 +42,22 @@ export function homeRow(obj: ObjectAudit, lookup: MethodLookup): HomeRow | undef
   const r = h.result;
   const scale = displayScale(r);
   const c = h.comparison;
+  const combined = headlineCombined(obj, h);
+  const note = !combined ? "" : combined.count > 1 ? `combined over ${combined.count}` : `from ${combined.inputs[0].key}`;
   return {
     row,
     status: statusView(obj.status),
     aliases: obj.aliases.join(", "),
     resultLabel: plainName(row.result),
-    recomputed: withUnit(formatWithSigma(r.value, r.sigma_plus_si / scale, r.sigma_minus_si / scale), unit),
+    recomputed: combined ? combinedValueText(combined) : withUnit(formatWithSigma(r.value, r.sigma_plus_si / scale, r.sigma_minus_si / scale), unit),
+    recomputedNote: note,
     published: c
       ? withUnit(formatByKind(c.published_kind, c.published_si / scale, c.published_plus_si / scale, c.published_minus_si / scale), unit)
       : "",
     z: c ? formatZ(c.z) : "",
     methodTitle: lookup(row.method)?.title ?? row.method,
     measurementAnchor: `measurement-${row.measurement}`,
-    sortMass: String(row.recomputed_si),
+    sortMass: String(combined ? combined.estimate!.value_si : row.recomputed_si),
     sortZ: c && !Number.isNaN(c.z) ? String(Math.abs(c.z)) : "",
   };
 }

@@ -14,6 +14,9 @@ import { renderTex } from "./katex.js";
 import { referenceView, type ReferenceView } from "./reference-view.js";
 import { statusView, type StatusView } from "./status.js";
 import { displayScale, siUnitSymbol, unitSymbol } from "./unit-display.js";
+import { plainName } from "./plain-name.js";
+import { referenceValuesView, type ReferenceValueView } from "./combined-view.js";
+import { diagnosisView, type DiagnosisView } from "./diagnosis-view.js";
 
 /** What an object's audit page shows, already formatted. Text fields are record text: templates escape them. */
 export interface ObjectPageView {
@@ -25,6 +28,8 @@ export interface ObjectPageView {
   readonly status: StatusView;
   readonly measurements: readonly MeasurementView[];
   readonly problems: readonly Problem[];
+  /** Per result the object's combination holds: the reference value and how it was formed. */
+  readonly referenceValues: readonly ReferenceValueView[];
 }
 
 export interface InputView {
@@ -67,6 +72,8 @@ export interface ResultView {
     readonly rejected: number;
   };
   readonly comparison?: ComparisonView;
+  /** Likely causes, when the comparison is flagged (tension or discrepant). */
+  readonly diagnosis?: DiagnosisView;
   /** Inline SVG (built from escaped pieces). */
   readonly budgetSvg: string;
 }
@@ -102,9 +109,7 @@ const KIND_LABELS: Readonly<Record<string, string>> = {
   "lower-limit": "lower limit",
 };
 
-export function plainName(name: string): string {
-  return name.replace(/_/g, " ");
-}
+export { plainName };
 
 function inlineTex(tex: string | undefined): string {
   return tex ? renderTex(tex, false) : "";
@@ -183,6 +188,8 @@ function resultView(r: ResultAudit, m: MeasurementAudit, method: MethodDefinitio
     };
   }
   if (c) out.comparison = comparisonView(r, c, idPrefix);
+  const d = m.diagnoses?.find((x) => x.result === r.name);
+  if (d) out.diagnosis = diagnosisView(d);
   return out;
 }
 
@@ -226,6 +233,7 @@ export function objectPageView(obj: ObjectAudit, lookup: MethodLookup, problems:
     status: statusView(obj.status),
     measurements: obj.measurements.map((m) => measurementView(m, lookup)),
     problems,
+    referenceValues: referenceValuesView(obj),
   };
   if (obj.notes !== undefined) out.notes = obj.notes;
   return out;

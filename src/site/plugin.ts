@@ -10,6 +10,8 @@ import { takePreparedSite } from "./handoff.js";
 import { CONTENT_DIR, DEMO_RECORDS, KATEX_DIST } from "./paths.js";
 import { buildSiteData, type SiteData } from "./site-data.js";
 import { NUNJUCKS_OPTIONS, writeObjectPages } from "./object-pages.js";
+import type { PreviousAudit } from "./changes-view.js";
+import { readAuditJson } from "../releases/read-audit-json.js";
 
 export interface SteelyardPluginOptions {
   /** Folder of YAML records to audit. Default: the demo records in content/records. */
@@ -20,6 +22,8 @@ export interface SteelyardPluginOptions {
   readonly report?: AuditReport;
   /** Monte Carlo draws when the plugin runs the audit itself. */
   readonly draws?: number;
+  /** An audit JSON of the previous release (downloads/audit.json); adds the changes page. */
+  readonly compareTo?: string;
 }
 
 interface ResolvedOptions {
@@ -27,6 +31,7 @@ interface ResolvedOptions {
   readonly basePath: string;
   readonly report?: AuditReport;
   readonly draws?: number;
+  readonly previous?: PreviousAudit;
 }
 
 function resolveOptions(options: SteelyardPluginOptions): ResolvedOptions {
@@ -44,6 +49,11 @@ function resolveOptions(options: SteelyardPluginOptions): ResolvedOptions {
   };
   if (report !== undefined) out.report = report;
   if (options.draws !== undefined) out.draws = options.draws;
+  if (prepared?.previous) out.previous = prepared.previous;
+  else if (!prepared && options.compareTo !== undefined) {
+    const file = path.resolve(options.compareTo);
+    out.previous = { path: file, audit: readAuditJson(file) };
+  }
   return out;
 }
 
@@ -67,7 +77,15 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
   };
   let dataPromise: Promise<SiteData> | undefined;
   const siteData = (): Promise<SiteData> => {
-    dataPromise ??= report().then((r) => buildSiteData({ report: r, basePath, methods: METHODS, constants: ALL_CONSTANTS }));
+    dataPromise ??= report().then((r) =>
+      buildSiteData({
+        report: r,
+        basePath,
+        methods: METHODS,
+        constants: ALL_CONSTANTS,
+        ...(resolved.previous ? { previous: resolved.previous } : {}),
+      }),
+    );
     return dataPromise;
   };
 
@@ -103,6 +121,16 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
       { render: async () => d.render(await report()) },
       { permalink: d.path, eleventyExcludeFromCollections: true },
     );
+  }
+
+  // the changes page exists only when there is a previous release to compare with
+  if (resolved.previous) {
+    eleventyConfig.addTemplate("changes.njk", '{% include "changes-page.njk" %}\n', {
+      layout: "base.njk",
+      title: "Changes since the previous release",
+      pageKind: "changes",
+      permalink: "/changes/",
+    });
   }
 
   eleventyConfig.addPassthroughCopy({ [path.join(CONTENT_DIR, "assets")]: "assets" });

@@ -10,6 +10,7 @@ import { objectPageView, type MethodLookup, type ObjectPageView } from "./object
 import { problemsByFile, problemsView, type ProblemsView } from "./problems-view.js";
 import { STATUSES } from "../audit/types.js";
 import { statusView, type StatusView } from "./status.js";
+import { changesView, type ChangesView, type PreviousAudit } from "./changes-view.js";
 
 /** Everything the pages read, as the global data value `steelyard`. */
 export interface SiteData {
@@ -26,6 +27,8 @@ export interface SiteData {
   readonly methods: readonly MethodView[];
   readonly constants: readonly ConstantView[];
   readonly downloads: ReadonlyArray<{ readonly key: string; readonly path: string; readonly title: string; readonly format: string }>;
+  /** What changed since the previous release; undefined when no previous audit was given. */
+  readonly changes?: ChangesView;
   /** The audit page of one object (built when its page is rendered). */
   objectPage(obj: ObjectAudit): ObjectPageView;
   /** A site path under the base path: {{ steelyard.link("objects/x/") }}. */
@@ -37,6 +40,8 @@ export interface SiteInputs {
   readonly basePath: string;
   readonly methods: readonly MethodDefinition[];
   readonly constants: readonly Constant[];
+  /** The previous release's audit, for the changes page. */
+  readonly previous?: PreviousAudit;
 }
 
 export function buildSiteData(input: SiteInputs): SiteData {
@@ -59,5 +64,6 @@ export function buildSiteData(input: SiteInputs): SiteData {
     downloads: DOWNLOADS.map(({ key, path, title, format }) => ({ key, path, title, format })),
     objectPage: (obj: ObjectAudit) => objectPageView(obj, lookup, byFile.get(obj.file) ?? []),
     link: (sitePath: string) => underBase(input.basePath, String(sitePath)),
+    ...(input.previous ? { changes: changesView(report, input.previous) } : {}),
   });
 }

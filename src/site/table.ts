@@ -31,6 +31,16 @@ export interface TableRow {
   readonly reference: string;
   readonly doi: string;
   readonly url: string;
+  /** The combined reference value of the row's result, in `unit` and in SI; null when none could be formed. */
+  readonly combined: number | null;
+  /** Mean of its two sides (after any scaling by the Birge ratio). */
+  readonly combined_sigma: number | null;
+  readonly combined_si: number | null;
+  readonly combined_sigma_si: number | null;
+  /** Measurements combined (0 when none). */
+  readonly combined_count: number;
+  /** null for fewer than two measurements combined. */
+  readonly birge_ratio: number | null;
 }
 
 /** The column order of the CSV download (our own plain names). */
@@ -56,6 +66,12 @@ export const TABLE_COLUMNS: ReadonlyArray<keyof TableRow> = [
   "doi",
   "url",
   "page",
+  "combined",
+  "combined_sigma",
+  "combined_si",
+  "combined_sigma_si",
+  "combined_count",
+  "birge_ratio",
 ];
 
 /** The site path of an object's page. Ids are slugs (the record loader enforces it); anything else is a programmer mistake. */
@@ -66,6 +82,24 @@ export function objectPath(id: string): string {
 
 function finiteOrNull(x: number): number | null {
   return Number.isFinite(x) ? x : null;
+}
+
+type CombinedColumns = Pick<TableRow, "combined" | "combined_sigma" | "combined_si" | "combined_sigma_si" | "combined_count" | "birge_ratio">;
+
+function combinedColumns(obj: ObjectAudit, result: string, scale: number): CombinedColumns {
+  const c = obj.combined?.[result];
+  const e = c?.estimate;
+  if (!c || !e) {
+    return { combined: null, combined_sigma: null, combined_si: null, combined_sigma_si: null, combined_count: c?.count ?? 0, birge_ratio: null };
+  }
+  return {
+    combined: finiteOrNull(e.value_si / scale),
+    combined_sigma: finiteOrNull(e.sigma_si / scale),
+    combined_si: finiteOrNull(e.value_si),
+    combined_sigma_si: finiteOrNull(e.sigma_si),
+    combined_count: c.count,
+    birge_ratio: c.birge_ratio === null ? null : finiteOrNull(c.birge_ratio),
+  };
 }
 
 export function tableRow(obj: ObjectAudit): TableRow | undefined {
@@ -95,6 +129,7 @@ export function tableRow(obj: ObjectAudit): TableRow | undefined {
     reference: m.reference.cite,
     doi: m.reference.doi ?? "",
     url: m.reference.url ?? "",
+    ...combinedColumns(obj, r.name, scale),
   };
 }
 

@@ -8,6 +8,13 @@ import { TABLE_COLUMNS } from "../../src/site/table.js";
 import { ALL_CONSTANTS } from "../../src/constants/sets.js";
 import { METHODS } from "../../src/methods/index.js";
 import { headlineOf } from "../../src/site/headline.js";
+import { readFileSync } from "node:fs";
+import { validateXML } from "xmllint-wasm";
+import { referenceTableVOTable } from "../../src/export/votable.js";
+import { combinedIndex } from "../../src/site/downloads.js";
+import { combinedValueText } from "../../src/site/combined-view.js";
+import { formatRatio, formatWithSigma } from "../../src/site/display.js";
+import { unitSymbol } from "../../src/site/unit-display.js";
 import { parseCsv } from "./helpers/csv-parse.js";
 import { decodeEntities, listFiles, readText, startTags, textContent } from "./helpers/html-scan.js";
 
@@ -15,6 +22,7 @@ const ROOT = path.resolve(__dirname, "../..");
 const FIXTURE_RECORDS = path.join(ROOT, "test/fixtures/site/records");
 const DEMO_RECORDS = path.join(ROOT, "content/records");
 const DRAWS = 400;
+const VOTABLE_SCHEMA = readFileSync(path.join(ROOT, "test/fixtures/votable/VOTable-1.4.xsd"), "utf8");
 
 const temp: string[] = [];
 function tempDir(label: string): string {
@@ -267,6 +275,40 @@ describe("site built from the fixture records", () => {
     }
   });
 
+  it("writes the combined values into the table downloads beside the headline measurement's", () => {
+    const rows = parseCsv(readText(out, "downloads/reference-table.csv"));
+    const col = (name: string): number => rows[0].indexOf(name);
+    for (const name of ["combined", "combined_sigma", "combined_si", "combined_sigma_si", "combined_count", "birge_ratio"]) expect(col(name), name).toBeGreaterThan(0);
+    for (const [i, obj] of report.objects.entries()) {
+      const row = rows[i + 1];
+      const c = obj.combined[headlineOf(obj)!.result.name];
+      expect(row[col("combined_count")], obj.id).toBe(String(c.count));
+      expect(row[col("combined_si")], obj.id).toBe(c.estimate ? String(c.estimate.value_si) : "");
+      expect(row[col("combined_sigma_si")], obj.id).toBe(c.estimate ? String(c.estimate.sigma_si) : "");
+      expect(row[col("birge_ratio")], obj.id).toBe(c.birge_ratio === null ? "" : String(c.birge_ratio));
+    }
+    // orvell-12: the 2011 velocities are marked not to be used, so one measurement is combined
+    const twelve = rows.find((r) => r[0] === "orvell-12")!;
+    expect(twelve[col("measurement_count")]).toBe("2");
+    expect(twelve[col("combined_count")]).toBe("1");
+  });
+
+  it("writes the reference values as a VOTable that is well-formed and valid against the VOTable 1.4 schema", async () => {
+    // IVOA VOTable 1.4 Recommendation (2019-10-21): the standard's own XML schema, checked with libxml2 (xmllint-wasm)
+    const xml = readText(out, "downloads/reference-table.vot");
+    const result = await validateXML({ xml: [{ fileName: "reference-table.vot", contents: xml }], schema: [VOTABLE_SCHEMA] });
+    expect(result.errors).toEqual([]);
+    expect(result.valid).toBe(true);
+    expect(xml).toBe(referenceTableVOTable(report, combinedIndex(report)));
+    // one table per result, one row per object with a combined value of it; the hostile name is escaped
+    const tables = [...xml.matchAll(/<TABLE name="([^"]+)" nrows="(\d+)">/g)].map((m) => [m[1], Number(m[2])]);
+    const expected = new Map<string, number>();
+    for (const o of report.objects) for (const [name, c] of Object.entries(o.combined)) if (c.estimate) expected.set(name, (expected.get(name) ?? 0) + 1);
+    expect(tables).toEqual([...expected.entries()].sort((a, b) => (a[0] < b[0] ? -1 : 1)));
+    expect(xml).toContain("<TD>&lt;script&gt;alert(1)&lt;/script&gt; Orvell 66 &quot;Q&quot; &amp; &apos;S&apos;</TD>");
+    expect(xml).not.toContain("<script>");
+  });
+
   it("writes one BibTeX entry per measurement, with balanced braces and escaped record text", () => {
     const bib = readText(out, "downloads/references.bib");
     const entries = bib.split(/\n(?=@)/).filter((e) => e.startsWith("@"));
@@ -320,6 +362,7 @@ describe("site built from the fixture records", () => {
     expect(hrefs).toEqual([
       "/downloads/reference-table.csv",
       "/downloads/reference-table.json",
+      "/downloads/reference-table.vot",
       "/downloads/audit.json",
       "/downloads/references.bib",
     ]);
@@ -434,5 +477,108 @@ describe("site built from the demo records", () => {
 
   it("loads nothing from outside the site", () => {
     expect(checkLinks(out, report, "/")).toEqual([]);
+  });
+
+  it("gives no two elements of a demo page the same id, with the reference values and likely causes in place", () => {
+    for (const f of htmlFiles(out)) {
+      const ids = startTags(readText(out, f)).flatMap((t) => (t.attributes.has("id") ? [t.attributes.get("id")!] : []));
+      expect(ids.filter((id, i) => ids.indexOf(id) !== i), f).toEqual([]);
+    }
+  });
+
+  /** The "likely causes" blocks of a page, in page order. */
+  function causeBlocks(html: string): Array<{ result: string; unexplained: string; markup: string }> {
+    return html
+      .split('<section class="likely-causes"')
+      .slice(1)
+      .map((part) => {
+        const markup = part.slice(0, part.indexOf("</section>"));
+        const tag = startTags(`<section${markup}`)[0];
+        return { result: tag.attributes.get("data-result")!, unexplained: tag.attributes.get("data-unexplained")!, markup };
+      });
+  }
+
+  it("gives every flagged comparison a likely-causes block, with the reminder that it is a prompt, not a verdict", () => {
+    let blocks = 0;
+    for (const o of report.objects) {
+      const html = readText(out, `objects/${o.id}/index.html`);
+      const found = causeBlocks(html);
+      const diagnoses = o.measurements.flatMap((m) => (m.diagnoses ?? []).map((d) => d.result));
+      const flagged = o.measurements.flatMap((m) => Object.values(m.comparisons).filter((c) => c.status === "tension" || c.status === "discrepant"));
+      expect(diagnoses.length, o.id).toBe(flagged.length);
+      expect(found.map((b) => b.result), o.id).toEqual(diagnoses);
+      for (const b of found) {
+        expect(textContent(b.markup)).toMatch(/a prompt to reread the paper with that slip in mind, not a verdict on it/);
+        // the slips tried sit in a collapsed list
+        expect(b.markup).toMatch(/<details class="hypotheses-tried">\s*<summary>Slips tried \(\d+\)<\/summary>/);
+      }
+      blocks += found.length;
+    }
+    expect(blocks).toBeGreaterThan(5);
+  });
+
+  it("puts the full-amplitude slip first on skxs-58, before any other cause, with its numbers", () => {
+    const obj = report.objects.find((o) => o.id === "skxs-58")!;
+    const html = readText(out, "objects/skxs-58/index.html");
+    const blocks = causeBlocks(html);
+    expect(blocks.map((b) => b.result)).toEqual(["mass_function", "min_secondary_mass"]);
+    for (const b of blocks) {
+      const d = obj.measurements[0].diagnoses!.find((x) => x.result === b.result)!;
+      const causes = startTags(b.markup).filter((t) => t.name === "li" && t.attributes.get("class") === "cause");
+      expect(causes.map((t) => t.attributes.get("data-hypothesis"))).toEqual(d.explained.map((e) => e.hypothesis));
+      expect(causes[0].attributes.get("data-hypothesis")).toBe("k-doubled");
+      const text = textContent(b.markup);
+      const first = text.indexOf("Full amplitude 2K used as K");
+      expect(first).toBeGreaterThan(0);
+      for (const other of d.explained.slice(1)) expect(text.indexOf(other.title, first + 1)).toBeGreaterThan(first);
+      expect(text).toContain(d.explained[0].description);
+      expect(text).toContain(`the slip alone multiplies the recomputed value by ${formatRatio(d.explained[0].slip_factor)}`);
+      if (b.result === "mass_function") {
+        // f(M) = P K³ (1 − e²)^{3/2} / (2πG): doubling K multiplies it by exactly 8
+        expect(d.explained[0].slip_factor).toBeCloseTo(8, 12);
+        expect(text).toContain("the slip alone multiplies the recomputed value by 8.0000");
+      }
+    }
+  });
+
+  it("says on skdl-76-ab that no single slip explains the tension", () => {
+    const obj = report.objects.find((o) => o.id === "skdl-76-ab")!;
+    const d = obj.measurements[0].diagnoses![0];
+    expect(d.unexplained).toBe(true);
+    const [block] = causeBlocks(readText(out, "objects/skdl-76-ab/index.html"));
+    expect(block.unexplained).toBe("true");
+    expect(block.markup).not.toContain('class="cause"');
+    const text = textContent(block.markup);
+    expect(text).toContain(d.summary);
+    expect(text).toMatch(/No single slip of the \d+ tried reconciles the published value/);
+  });
+
+  it("shows quessel's reference value combined over its two measurements, with a forest chart of one row each", () => {
+    const obj = report.objects.find((o) => o.id === "quessel")!;
+    const c = obj.combined.total_mass;
+    expect(c.count).toBe(2);
+    const e = c.estimate!;
+    const printed = `${formatWithSigma(e.value, e.sigma_plus, e.sigma_minus)}\u00a0${unitSymbol(e.display_unit)}`;
+    const html = readText(out, "objects/quessel/index.html");
+    const section = html.slice(html.indexOf('<section class="reference-value" id="reference-total_mass"'));
+    expect(section.length).toBeLessThan(html.length);
+    expect(decodeEntities(section)).toContain(`Combined value: <span class="combined-value">${printed}</span>`);
+    // the weighted mean lies between the two recomputed values, nearer the one with the smaller σ
+    const [a, b] = obj.measurements.map((m) => m.results.total_mass);
+    expect(e.value_si).toBeGreaterThan(Math.min(a.value_si, b.value_si));
+    expect(e.value_si).toBeLessThan(Math.max(a.value_si, b.value_si));
+    const nearer = a.sigma_si < b.sigma_si ? a : b;
+    const farther = nearer === a ? b : a;
+    expect(Math.abs(e.value_si - nearer.value_si)).toBeLessThan(Math.abs(e.value_si - farther.value_si));
+    const svg = section.slice(section.indexOf('<svg class="chart forest-chart"'), section.indexOf("</svg>") + 6);
+    const rows = startTags(svg).filter((t) => t.name === "g" && (t.attributes.get("class") ?? "").startsWith("forest-row"));
+    expect(rows.map((t) => t.attributes.get("data-key"))).toEqual(obj.measurements.map((m) => m.key));
+    const band = startTags(svg).find((t) => t.attributes.get("class") === "forest-combined")!;
+    expect(Number(band.attributes.get("data-value"))).toBeCloseTo(e.value, 12);
+    // the home table shows the same combined value and says so
+    const home = readText(out, "index.html");
+    const row = home.slice(home.indexOf('data-id="quessel"'), home.indexOf("</tr>", home.indexOf('data-id="quessel"')));
+    expect(decodeEntities(row)).toContain(`${printed}<span class="value-note">combined over 2</span>`);
+    expect(printed).toBe(combinedValueText(c));
   });
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { ComparisonAudit, ResultAudit } from "../../src/audit/types.js";
-import { budgetChart, comparisonChart } from "../../src/site/charts.js";
+import { budgetChart, comparisonChart, forestChart } from "../../src/site/charts.js";
 import { startTags } from "./helpers/html-scan.js";
 
 const MSUN_KG = 1.988409870698051e30;
@@ -136,5 +136,77 @@ describe("published-against-recomputed chart", () => {
     const numbers = ticks.slice(0, -1);
     expect(numbers.length).toBeGreaterThanOrEqual(3);
     expect(new Set(numbers).size).toBe(numbers.length);
+  });
+});
+
+/** The markup of one forest row, from its <g> to its </g>; `key` as it appears escaped in the markup. */
+function rowMarkup(svg: string, key: string): string {
+  const part = svg.split('<g class="forest-row').find((p) => p.includes(`data-key="${key}"`))!;
+  return part.slice(0, part.indexOf("</g>"));
+}
+
+describe("forest chart of the measurements behind a reference value", () => {
+  const rows = [
+    { key: "orbit-<a>&b", used: true, value: 1.0, low: 0.9, high: 1.2 },
+    { key: "orbit-2", used: true, value: 1.1, low: 1.05, high: 1.15 },
+    { key: "orbit-old", used: false, value: 1.4, low: 1.2, high: 1.6 },
+  ];
+  const svg = forestChart(rows, { value: 1.08, low: 1.04, high: 1.12 }, "reference-total_mass-forest", "Total <mass>", "M☉");
+  const tags = startTags(svg);
+  const groups = (cls: string) => tags.filter((t) => t.name === "g" && (t.attributes.get("class") ?? "").split(" ").includes(cls));
+  /** The marker and whisker ends of one row, read from the markup between its <g> and the next. */
+  function rowGeometry(key: string): { cx: number; x1: number; x2: number; hollow: boolean } {
+    const t = startTags(rowMarkup(svg, key));
+    const circle = t.find((x) => x.name === "circle")!;
+    const line = t.find((x) => x.name === "line")!;
+    return {
+      cx: Number(circle.attributes.get("cx")),
+      x1: Number(line.attributes.get("x1")),
+      x2: Number(line.attributes.get("x2")),
+      hollow: circle.attributes.get("class") === "chart-marker-hollow",
+    };
+  }
+
+  it("draws one row per measurement, in the order given, and marks the ones not combined", () => {
+    expect(groups("forest-row").map((g) => g.attributes.get("data-key"))).toEqual(["orbit-<a>&b", "orbit-2", "orbit-old"]);
+    expect(groups("forest-excluded").map((g) => g.attributes.get("data-key"))).toEqual(["orbit-old"]);
+    expect(rowGeometry("orbit-old").hollow).toBe(true);
+    expect(rowGeometry("orbit-2").hollow).toBe(false);
+    expect(svg).toContain(">orbit-old (not used)</text>");
+  });
+
+  it("draws asymmetric error bars to scale and the band over the combined interval", () => {
+    const a = rowGeometry("orbit-&lt;a&gt;&amp;b");
+    // σ₊ = 0.2 and σ₋ = 0.1: the bar reaches twice as far to the right of the marker as to the left
+    expect((a.x2 - a.cx) / (a.cx - a.x1)).toBeCloseTo(2, 1);
+    const b = rowGeometry("orbit-2");
+    const band = tags.find((t) => t.attributes.get("class") === "forest-band")!;
+    const bx = Number(band.attributes.get("x"));
+    const bw = Number(band.attributes.get("width"));
+    // the band (1.04 to 1.12, 0.08 wide) against orbit-2's bar (1.05 to 1.15, 0.10 wide) on the same axis
+    expect(bw / (b.x2 - b.x1)).toBeCloseTo(0.8, 1);
+    expect(bx).toBeLessThan(b.x1);
+    const centre = tags.find((t) => t.attributes.get("class") === "forest-centre")!;
+    expect(Number(centre.attributes.get("x1"))).toBeCloseTo(bx + bw / 2, 0);
+    expect(groups("forest-combined")[0].attributes.get("data-value")).toBe("1.08");
+  });
+
+  it("escapes every label and the title", () => {
+    expect(svg).not.toContain("<a>");
+    expect(svg).not.toContain("<mass>");
+    expect(svg).toContain(">orbit-&lt;a&gt;&amp;b</text>");
+    expect(svg).toContain('data-key="orbit-&lt;a&gt;&amp;b"');
+    expect(svg).toContain("<title id=\"reference-total_mass-forest-title\">Total &lt;mass&gt;</title>");
+  });
+
+  it("shortens long labels on the chart and keeps them whole in the row's tooltip", () => {
+    const long = "a-very-long-measurement-key-from-a-survey";
+    const s = forestChart([{ key: long, used: true, value: 1, low: 0.9, high: 1.1 }, { key: "b", used: true, value: 1, low: 1, high: 1 }], null, "f", "t", "");
+    expect(s).toContain(`<title>${long}</title>`);
+    expect(s).toContain(">a-very-long-measurement…</text>");
+    // no uncertainty: a marker without a bar; no combined value: no band
+    expect(startTags(rowMarkup(s, "b")).filter((t) => t.name === "line")).toEqual([]);
+    expect(startTags(rowMarkup(s, "b")).filter((t) => t.name === "circle")).toHaveLength(1);
+    expect(s).not.toContain("forest-band");
   });
 });

@@ -3,8 +3,12 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { runAudit } from "../../src/audit/index.js";
 import type { AuditReport, ObjectAudit } from "../../src/audit/types.js";
 import { getMethod } from "../../src/methods/index.js";
+import { combineObject } from "../../src/combine/combine-object.js";
+import { combinedValueText } from "../../src/site/combined-view.js";
+import { diagnosisView } from "../../src/site/diagnosis-view.js";
+import { formatPlain, formatShare, formatWithSigma, formatZ } from "../../src/site/display.js";
 import { headlineOf } from "../../src/site/headline.js";
-import { homeRows, statusCounts } from "../../src/site/home-view.js";
+import { homeRow, homeRows, statusCounts } from "../../src/site/home-view.js";
 import { objectPageView } from "../../src/site/object-view.js";
 import { flaggedComparisons, problemsByFile } from "../../src/site/problems-view.js";
 import { objectPath, tableRows } from "../../src/site/table.js";
@@ -145,5 +149,169 @@ describe("flag list", () => {
     ]);
     expect(flags[0].page).toBe(objectPath("orvell-9"));
     expect(flags[0].anchor).toBe("measurement-velocities-2019");
+  });
+});
+
+describe("combined reference values in the table and on the object page", () => {
+  /** orvell-12 with both velocity sets in use, the older one's mass function moved by `factor`, combined afresh. */
+  function bothInUse(factor: number): ObjectAudit {
+    const obj = byId("orvell-12");
+    const measurements = obj.measurements.map((m) => {
+      if (m.key !== "velocities-2011") return m;
+      const r = m.results.mass_function;
+      const moved = {
+        ...r,
+        value_si: r.value_si * factor,
+        value: r.value * factor,
+        sigma_si: r.sigma_si * factor,
+        sigma: r.sigma * factor,
+        sigma_plus_si: r.sigma_plus_si * factor,
+        sigma_minus_si: r.sigma_minus_si * factor,
+      };
+      return { ...m, use: true, results: { ...m.results, mass_function: moved } };
+    });
+    const changed = { ...obj, measurements };
+    return { ...changed, combined: combineObject(changed) };
+  }
+
+  it("give the download row the combined value of the headline's result, with its count and no Birge ratio for one", () => {
+    const obj = byId("orvell-12");
+    const row = tableRows(report).find((r) => r.object_id === "orvell-12")!;
+    const c = obj.combined.mass_function;
+    expect(c.count).toBe(1);
+    expect(row.combined_si).toBe(c.estimate!.value_si);
+    expect(row.combined_sigma_si).toBe(c.estimate!.sigma_si);
+    expect(row.combined_count).toBe(1);
+    expect(row.birge_ratio).toBeNull();
+    // one measurement in use: its own value, and the table says nothing more
+    expect(row.combined_si).toBe(row.recomputed_si);
+    expect(homeRows(report, getMethod).find((r) => r.row.object_id === "orvell-12")!.recomputedNote).toBe("");
+  });
+
+  it("show the reference value and say where it comes from when the measurement compared is not in use", () => {
+    const obj = byId("orvell-12");
+    const swapped = obj.measurements.map((m) => ({ ...m, use: m.key === "velocities-2011" }));
+    const changed = { ...obj, measurements: swapped };
+    const withCombined = { ...changed, combined: combineObject(changed) };
+    const h = headlineOf(withCombined)!;
+    expect(h.measurement.key).toBe("velocities-2021");
+    const row = homeRow(withCombined, getMethod)!;
+    expect(row.recomputedNote).toBe("from velocities-2011");
+    const r2011 = obj.measurements[1].results.mass_function;
+    const scale = r2011.value_si / r2011.value;
+    expect(row.recomputed).toBe(`${formatWithSigma(r2011.value, r2011.sigma_plus_si / scale, r2011.sigma_minus_si / scale)}\u00a0M☉`);
+    expect(row.sortMass).toBe(String(withCombined.combined.mass_function.estimate!.value_si));
+  });
+
+  it("combine two measurements by inverse-variance weights and say so on the home row", () => {
+    const obj = bothInUse(1);
+    const [a, b] = obj.measurements.map((m) => m.results.mass_function);
+    // inverse-variance weighted mean of two symmetric values (the textbook formula, recomputed here)
+    const wa = 1 / a.sigma_si ** 2;
+    const wb = 1 / b.sigma_si ** 2;
+    const mean = (wa * a.value_si + wb * b.value_si) / (wa + wb);
+    const c = obj.combined.mass_function;
+    expect(c.estimate!.value_si / mean - 1).toBeCloseTo(0, 12);
+    const row = homeRow(obj, getMethod)!;
+    expect(row.recomputedNote).toBe("combined over 2");
+    expect(row.recomputed).toBe(combinedValueText(c));
+    expect(row.row.combined_count).toBe(2);
+    expect(row.row.birge_ratio).toBe(c.birge_ratio);
+  });
+
+  it("give the page the value, χ², Birge ratio, the heaviest and most discordant measurement, and the scaling when R > 1", () => {
+    const obj = bothInUse(1.6);
+    const [a, b] = obj.measurements.map((m) => m.results.mass_function);
+    const wa = 1 / a.sigma_si ** 2;
+    const wb = 1 / b.sigma_si ** 2;
+    const mean = (wa * a.value_si + wb * b.value_si) / (wa + wb);
+    const chi2 = wa * (a.value_si - mean) ** 2 + wb * (b.value_si - mean) ** 2;
+    const birge = Math.sqrt(chi2 / 1);
+    expect(birge).toBeGreaterThan(1);
+    const v = objectPageView(obj, getMethod).referenceValues.find((x) => x.result === "mass_function")!;
+    expect(v.count).toBe(2);
+    expect(v.dof).toBe(1);
+    expect(v.chi2).toBe(formatPlain(chi2, 3));
+    expect(v.birge).toBe(formatPlain(birge, 3));
+    expect(v.scaled).toBe(true);
+    expect(v.scaledNote).toBe(`uncertainty scaled by R = ${formatPlain(birge, 3)}`);
+    // the internal σ of the mean is 1/√(Σw); the page's is that times R
+    const e = obj.combined.mass_function.estimate!;
+    expect(e.sigma_si / (birge / Math.sqrt(wa + wb)) - 1).toBeCloseTo(0, 9);
+    expect(v.value).toBe(`${formatWithSigma(e.value, e.sigma_plus, e.sigma_minus)}\u00a0M☉`);
+    // the 2021 set has the smaller σ, so the larger weight; with two measurements both pulls are equal in size
+    expect(v.heaviest!.key).toBe(wa > wb ? "velocities-2021" : "velocities-2011");
+    expect(v.heaviest!.detail).toBe(`${formatShare(Math.max(wa, wb) / (wa + wb))} of the weight`);
+    // two measurements: the weighted residuals cancel, w_a·d_a = −w_b·d_b, so each one's part of χ² is
+    // w·d² ∝ 1/w: the lighter measurement is the more discordant, with the heavier one's share of the weight
+    const lighter = wa < wb ? { key: "velocities-2021", r: a } : { key: "velocities-2011", r: b };
+    expect(v.mostDiscordant!.key).toBe(lighter.key);
+    const pull = (lighter.r.value_si - mean) / lighter.r.sigma_si;
+    expect(v.mostDiscordant!.detail).toBe(`pull ${formatZ(pull)}σ, ${formatShare(Math.max(wa, wb) / (wa + wb))} of χ²`);
+    expect(v.inputs.map((i) => i.key)).toEqual(["velocities-2011", "velocities-2021"]);
+    expect(v.excluded).toEqual([]);
+    expect(v.chartSvg).toMatch(/^<svg class="chart forest-chart"/);
+  });
+
+  it("list a measurement marked not to be used with its comment as the reason, and draw it hollow", () => {
+    const v = objectPageView(byId("orvell-12"), getMethod).referenceValues.find((x) => x.result === "mass_function")!;
+    expect(v.excluded).toEqual([{ key: "velocities-2011", anchor: "measurement-velocities-2011", reason: "marked not to be used: Superseded by the 2021 velocities." }]);
+    expect(v.chartSvg).toContain('data-key="velocities-2011" data-used="false"');
+    expect(v.chartSvg).toContain('class="chart-marker-hollow"');
+    expect(v.birge).toBe("\u2014");
+    expect(v.chi2).toBe("\u2014");
+    expect(v.heaviest).toBeUndefined();
+    expect(v.mostDiscordant).toBeUndefined();
+    expect(v.scaledNote).toBe("");
+  });
+});
+
+describe("likely causes on the object page", () => {
+  it("show the summary, no cause, and every slip tried by its title when none reconciles", () => {
+    const m = byId("orvell-9").measurements[0];
+    const d = m.diagnoses!.find((x) => x.result === "primary_mass")!;
+    expect(d.unexplained).toBe(true);
+    const r = objectPageView(byId("orvell-9"), getMethod).measurements[0].results.find((x) => x.name === "primary_mass")!;
+    expect(r.diagnosis!.summary).toBe(d.summary);
+    expect(r.diagnosis!.summary).toMatch(/^No single slip of the 11 tried/);
+    expect(r.diagnosis!.causes).toEqual([]);
+    expect(r.diagnosis!.tried.map((t) => t.hypothesis).sort()).toEqual([...d.tried]);
+    expect(r.diagnosis!.tried.find((t) => t.hypothesis === "k-swapped")!.title).toBe("K₁ and K₂ swapped");
+    const titles = r.diagnosis!.tried.map((t) => t.title);
+    expect(titles).toEqual([...titles].sort());
+    expect(r.diagnosis!.tried.every((t) => !t.matched)).toBe(true);
+  });
+
+  it("give no block to a result that is not flagged", () => {
+    const r = objectPageView(byId("orvell-5-ab"), getMethod).measurements[0].results[0];
+    expect(r.comparison!.status.status).toBe("consistent");
+    expect(r.diagnosis).toBeUndefined();
+  });
+
+  it("keep the causes best first with their numbers, and mark the matched slips among those tried", () => {
+    const view = diagnosisView({
+      key: "k",
+      method: "single-lined",
+      result: "mass_function",
+      status: "discrepant",
+      z: -19.77,
+      explained: [
+        { hypothesis: "k-doubled", title: "Full amplitude 2K used as K", description: "d1", kind: "value", z_after: 0.0065, status_after: "consistent", factor: 7.9977, slip_factor: 8, recomputed_after_si: 1 },
+        { hypothesis: "days-as-years", title: "Period in days taken as years", description: "d2", kind: "value", z_after: -0.9, status_after: "consistent", factor: 7.9977, slip_factor: 7.5, recomputed_after_si: 1 },
+      ],
+      unexplained: false,
+      summary: "s",
+      tried: ["days-as-years", "k-doubled", "k-halved"],
+    });
+    expect(view.causes.map((c) => [c.title, c.zAfter, c.factor, c.slipFactor])).toEqual([
+      ["Full amplitude 2K used as K", "0.01", "7.9977", "8.0000"],
+      ["Period in days taken as years", "\u22120.90", "7.9977", "7.5000"],
+    ]);
+    expect(view.z).toBe("\u221219.77");
+    expect(view.tried.map((t) => [t.hypothesis, t.matched])).toEqual([
+      ["k-doubled", true],
+      ["k-halved", false],
+      ["days-as-years", true],
+    ]);
   });
 });
