@@ -1,6 +1,16 @@
 import type { Issue } from "../problem.js";
 import { ANGLE, DIMENSIONLESS, LENGTH, MASS, TIME } from "../units/dimension.js";
-import { defineMethod, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { defineMethod, type DrawColumns, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import {
+  companionMassColumn,
+  keplerColumn,
+  lengthColumn,
+  oneColumn,
+  requireOtherPositive,
+  scratchColumn,
+  slotsWithRule,
+  zeroColumn,
+} from "./batch-shared.js";
 import {
   FOUR_PI_SQUARED,
   STEP_SEPARATOR,
@@ -53,6 +63,9 @@ const RULES: Record<string, RangeRule> = {
   primary_mass: "positive",
   eccentricity: "eccentricity",
 };
+
+/** Slots under the "positive" rule, for the batch kernel. */
+const POSITIVE_SLOTS = slotsWithRule(RULES, "positive");
 
 const EQUATIONS: readonly MethodEquation[] = [
   {
@@ -139,6 +152,15 @@ export const astrometricOrbit = defineMethod({
 
   substituted(si, results, fmt): MethodEquation[] {
     return alignEquations(EQUATIONS, substitutedSteps(si, results, fmt));
+  },
+
+  batch(columns: DrawColumns, n: number, out: Readonly<Record<string, Float64Array>>, valid: Uint8Array): void {
+    const a = scratchColumn(0, n);
+    const used = lengthColumn(columns, "semimajor_axis", "angular_semimajor_axis", n, a, valid);
+    const f = out.mass_function;
+    keplerColumn(columns.period, a, columns.eccentricity ?? zeroColumn(n), n, f, valid);
+    requireOtherPositive(columns, POSITIVE_SLOTS, [...used, "period", "primary_mass"], n, valid);
+    if (columns.primary_mass !== undefined) companionMassColumn(f, columns.primary_mass, oneColumn(n), n, out.secondary_mass, valid);
   },
 });
 

@@ -1,6 +1,7 @@
 import type { Issue } from "../problem.js";
 import { ANGLE, LENGTH, MASS, VELOCITY } from "../units/dimension.js";
-import { defineMethod, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { defineMethod, type DrawColumns, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { lengthColumn, requireOtherPositive, scratchColumn, slotsWithRule } from "./batch-shared.js";
 import {
   STEP_SEPARATOR,
   addChain,
@@ -41,6 +42,9 @@ const RULES: Record<string, RangeRule> = {
   parallax: "positive",
   distance: "positive",
 };
+
+/** Slots under the "positive" rule, for the batch kernel. */
+const POSITIVE_SLOTS = slotsWithRule(RULES, "positive");
 
 const EQUATIONS: readonly MethodEquation[] = [
   {
@@ -100,6 +104,20 @@ export const circularVelocity = defineMethod({
 
   substituted(si, results, fmt): MethodEquation[] {
     return alignEquations(EQUATIONS, substitutedSteps(si, results, fmt));
+  },
+
+  batch(columns: DrawColumns, n: number, out: Readonly<Record<string, Float64Array>>, valid: Uint8Array): void {
+    const r = scratchColumn(0, n);
+    const used = lengthColumn(columns, "radius", "angular_radius", n, r, valid);
+    requireOtherPositive(columns, POSITIVE_SLOTS, [...used, "velocity"], n, valid);
+    const speed = columns.velocity;
+    const mass = out.enclosed_mass;
+    for (let j = 0; j < n; j++) {
+      const v = speed[j];
+      const M = v * v * r[j];
+      mass[j] = M;
+      if (!(v > 0 && v < Infinity && M - M === 0)) valid[j] = 0;
+    }
   },
 });
 

@@ -1,6 +1,7 @@
 import type { Issue } from "../problem.js";
 import { ANGLE, DIMENSIONLESS, LENGTH, MASS, TIME, VELOCITY } from "../units/dimension.js";
-import { defineMethod, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { defineMethod, type DrawColumns, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { inclinationColumn, scratchColumn, zeroColumn } from "./batch-shared.js";
 import { STEP_SEPARATOR, TWO_PI, alignEquations, checkRanges, has, missing, paren, restrictRow, type RangeRule } from "./shared.js";
 
 /**
@@ -18,6 +19,9 @@ const INPUTS: readonly MethodInput[] = [
 ];
 
 const SLOTS = INPUTS.map((i) => i.slot);
+
+/** 1/(2π), so that the batch kernel multiplies where compute() divides (the same to rounding). */
+const INV_TWO_PI = 1 / TWO_PI;
 
 const RULES: Record<string, RangeRule> = {
   period: "positive",
@@ -151,6 +155,56 @@ export const doubleLined = defineMethod({
 
   substituted(si, results, fmt): MethodEquation[] {
     return alignEquations(EQUATIONS, substitutedSteps(si, results, fmt));
+  },
+
+  batch(columns: DrawColumns, n: number, out: Readonly<Record<string, Float64Array>>, valid: Uint8Array): void {
+    const period = columns.period;
+    const k1 = columns.k1;
+    const k2 = columns.k2;
+    const ecc = columns.eccentricity ?? zeroColumn(n);
+    const m1Out = out.m1_sin3i;
+    const m2Out = out.m2_sin3i;
+    const aOut = out.a_sin_i;
+    const qOut = out.mass_ratio;
+    for (let j = 0; j < n; j++) {
+      const P = period[j];
+      const K1 = k1[j];
+      const K2 = k2[j];
+      const e = ecc[j];
+      const w = 1 - e * e;
+      const root = Math.sqrt(w);
+      const S = K1 + K2;
+      const C = P * (w * root) * INV_TWO_PI;
+      const m1s = C * S * S * K2;
+      const m2s = C * S * S * K1;
+      const asini = S * P * root * INV_TWO_PI;
+      const q = K1 / K2;
+      m1Out[j] = m1s;
+      m2Out[j] = m2s;
+      aOut[j] = asini;
+      qOut[j] = q;
+      valid[j] =
+        P > 0 && P < Infinity && K1 > 0 && K1 < Infinity && K2 > 0 && K2 < Infinity && e >= 0 && e < 1 &&
+        m1s - m1s === 0 && m2s - m2s === 0 && asini - asini === 0 && q - q === 0
+          ? 1
+          : 0;
+    }
+    const incl = columns.inclination;
+    if (incl !== undefined) {
+      const sines = scratchColumn(0, n);
+      inclinationColumn(incl, n, sines, valid);
+      const primary = out.primary_mass;
+      const secondary = out.secondary_mass;
+      for (let j = 0; j < n; j++) {
+        const s = sines[j];
+        const s3 = s * s * s;
+        const M1 = m1Out[j] / s3;
+        const M2 = m2Out[j] / s3;
+        primary[j] = M1;
+        secondary[j] = M2;
+        if (!(M1 - M1 === 0 && M2 - M2 === 0)) valid[j] = 0;
+      }
+    }
   },
 });
 

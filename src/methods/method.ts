@@ -44,6 +44,9 @@ export interface MethodSource {
   readonly url?: string;
 }
 
+/** Draws of the present slots for the Monte Carlo: one SI value (GM for masses) per draw, keyed by slot. */
+export type DrawColumns = Readonly<Record<string, Float64Array>>;
+
 /** A number as it should be typeset, with its unit in LaTeX. */
 export type FormatNumber = (valueSI: number, slotOrResult: string) => string;
 
@@ -76,6 +79,15 @@ export interface MethodDefinition {
    * with the same `results`; `latex` is "" where that equation does not apply to the inputs given.
    */
   substituted(si: SIInputs, results: Readonly<Record<string, number>>, fmt: FormatNumber): MethodEquation[];
+  /**
+   * Optional typed-array form of validate() and compute() for the Monte Carlo. For each draw j < n of
+   * the present slots' columns it writes every result compute() would give into out[result][j] and sets
+   * valid[j] to 1, or to 0 where validate() would refuse the draw's values (the range checks) or a result
+   * is not finite. Called only with a combination of slots that validate() accepts: which slots are
+   * present decides the missing and ambiguous inputs, so those checks are left out. `out` holds one
+   * column for each result compute() gives for these slots.
+   */
+  batch?(columns: DrawColumns, n: number, out: Readonly<Record<string, Float64Array>>, valid: Uint8Array): void;
 }
 
 export function defineMethod(m: MethodDefinition): MethodDefinition {

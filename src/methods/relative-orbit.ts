@@ -1,6 +1,7 @@
 import { issue, type Issue } from "../problem.js";
 import { ANGLE, DIMENSIONLESS, LENGTH, MASS, TIME } from "../units/dimension.js";
-import { defineMethod, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { defineMethod, type DrawColumns, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { keplerColumn, lengthColumn, requireOtherPositive, scratchColumn, slotsWithRule, zeroColumn } from "./batch-shared.js";
 import {
   FOUR_PI_SQUARED,
   STEP_SEPARATOR,
@@ -57,6 +58,9 @@ const RULES: Record<string, RangeRule> = {
   secondary_mass: "positive",
   eccentricity: "eccentricity",
 };
+
+/** Slots under the "positive" rule, for the batch kernel. */
+const POSITIVE_SLOTS = slotsWithRule(RULES, "positive");
 
 const SPLITTERS = ["mass_ratio", "primary_mass", "secondary_mass"] as const;
 
@@ -187,6 +191,44 @@ export const relativeOrbit = defineMethod({
 
   substituted(si, results, fmt): MethodEquation[] {
     return alignEquations(EQUATIONS, substitutedSteps(si, results, fmt));
+  },
+
+  batch(columns: DrawColumns, n: number, out: Readonly<Record<string, Float64Array>>, valid: Uint8Array): void {
+    const a = scratchColumn(0, n);
+    const used = lengthColumn(columns, "semimajor_axis", "angular_semimajor_axis", n, a, valid);
+    const total = out.total_mass;
+    keplerColumn(columns.period, a, columns.eccentricity ?? zeroColumn(n), n, total, valid);
+    requireOtherPositive(columns, POSITIVE_SLOTS, [...used, "period", ...SPLITTERS], n, valid);
+    // the same splitter as compute(): mass ratio, else primary mass, else secondary mass
+    const by = SPLITTERS.find((s) => columns[s] !== undefined);
+    if (by === "mass_ratio") {
+      const ratio = columns.mass_ratio;
+      const primary = out.primary_mass;
+      const secondary = out.secondary_mass;
+      for (let j = 0; j < n; j++) {
+        const M = total[j];
+        const q = ratio[j];
+        const m1 = M / (1 + q);
+        const m2 = (q * M) / (1 + q);
+        primary[j] = m1;
+        secondary[j] = m2;
+        if (!(q > 0 && q < Infinity && m1 - m1 === 0 && m2 - m2 === 0)) valid[j] = 0;
+      }
+    } else if (by !== undefined) {
+      // a known component: the other is the difference, and the known one must stay below the total
+      const given = columns[by];
+      const other = by === "primary_mass" ? out.secondary_mass : out.primary_mass;
+      const period = columns.period;
+      for (let j = 0; j < n; j++) {
+        const M = total[j];
+        const g = given[j];
+        const rest = M - g;
+        other[j] = rest;
+        // within rounding of the total, decide on the total exactly as validate() computes it
+        const below = Math.abs(rest) > 1e-12 * M ? g < M : g < (FOUR_PI_SQUARED * a[j] ** 3) / (period[j] * period[j]);
+        if (!(g > 0 && g < Infinity && below && rest - rest === 0)) valid[j] = 0;
+      }
+    }
   },
 });
 

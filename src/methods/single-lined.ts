@@ -1,6 +1,7 @@
 import type { Issue } from "../problem.js";
 import { ANGLE, DIMENSIONLESS, LENGTH, MASS, TIME, VELOCITY } from "../units/dimension.js";
-import { defineMethod, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { defineMethod, type DrawColumns, type FormatNumber, type MethodEquation, type MethodInput, type SIInputs } from "./method.js";
+import { companionMassColumn, inclinationColumn, oneColumn, scratchColumn, zeroColumn } from "./batch-shared.js";
 import {
   TWO_PI,
   checkRanges,
@@ -33,6 +34,9 @@ const INPUTS: readonly MethodInput[] = [
 ];
 
 const SLOTS = INPUTS.map((i) => i.slot);
+
+/** 1/(2π), so that the batch kernel multiplies where compute() divides (the same to rounding). */
+const INV_TWO_PI = 1 / TWO_PI;
 
 const RULES: Record<string, RangeRule> = {
   period: "positive",
@@ -154,6 +158,35 @@ export const singleLined = defineMethod({
 
   substituted(si, results, fmt): MethodEquation[] {
     return alignEquations(EQUATIONS, substitutedSteps(si, results, fmt));
+  },
+
+  batch(columns: DrawColumns, n: number, out: Readonly<Record<string, Float64Array>>, valid: Uint8Array): void {
+    const period = columns.period;
+    const k1 = columns.k1;
+    const ecc = columns.eccentricity ?? zeroColumn(n);
+    const f = out.mass_function;
+    const a1 = out.a1_sin_i;
+    for (let j = 0; j < n; j++) {
+      const P = period[j];
+      const K = k1[j];
+      const e = ecc[j];
+      const w = 1 - e * e;
+      const root = Math.sqrt(w);
+      const fj = P * (K * K * K) * (w * root) * INV_TWO_PI;
+      const aj = K * P * root * INV_TWO_PI;
+      f[j] = fj;
+      a1[j] = aj;
+      valid[j] = P > 0 && P < Infinity && K > 0 && K < Infinity && e >= 0 && e < 1 && fj - fj === 0 && aj - aj === 0 ? 1 : 0;
+    }
+    // sin i is checked whenever an inclination is given, used or not
+    const incl = columns.inclination;
+    const sines = incl === undefined ? undefined : scratchColumn(0, n);
+    if (incl !== undefined) inclinationColumn(incl, n, sines!, valid);
+    const primary = columns.primary_mass;
+    if (primary !== undefined) {
+      companionMassColumn(f, primary, oneColumn(n), n, out.min_secondary_mass, valid);
+      if (sines !== undefined) companionMassColumn(f, primary, sines, n, out.secondary_mass, valid);
+    }
   },
 });
 
