@@ -3,13 +3,14 @@ import { exitCodeFor } from "./audit/audit-records.js";
 import { runAudit } from "./audit/run.js";
 import { textReport } from "./report/text-report.js";
 import { VERSION } from "./version.js";
+import { DEFAULT_CACHE_DIR } from "./cache/cache-dir.js";
 
 const USAGE = `steelyard ${VERSION}: recompute published dynamical masses and audit them
 
 Usage:
   steelyard check [RECORDS_DIR] [--json] [--draws N] [--tension Z] [--discrepant Z]
   steelyard build [RECORDS_DIR] [--out DIR] [--base-path /prefix/] [--draws N] [--exit-zero]
-                  [--compare-to PREVIOUS_AUDIT_JSON]
+                  [--compare-to PREVIOUS_AUDIT_JSON] [--cache-dir DIR | --no-cache]
   steelyard help | --help
   steelyard --version
 
@@ -20,6 +21,10 @@ was written, whatever the audit found (the demo table shows every status on purp
 build --compare-to adds a page of what changed since the previous release, read from
 that release's downloads/audit.json (or steelyard check --json); a file that cannot be
 used is reported on that page and here, the site is still written, and the exit code is 2.
+build keeps a cache in --cache-dir (default .cache/steelyard in the working folder): record
+files that have not changed are not read or audited again, and object pages and downloads
+that would come out the same are not written again. The site is the same with or without
+it; --no-cache builds everything from scratch and leaves the cache alone.
 `;
 
 interface Parsed {
@@ -28,8 +33,8 @@ interface Parsed {
   readonly flags: Map<string, string | true>;
 }
 
-const VALUE_FLAGS = new Set(["--out", "--base-path", "--draws", "--tension", "--discrepant", "--compare-to"]);
-const BOOLEAN_FLAGS = new Set(["--json", "--help", "--version", "--quiet", "--exit-zero"]);
+const VALUE_FLAGS = new Set(["--out", "--base-path", "--draws", "--tension", "--discrepant", "--compare-to", "--cache-dir"]);
+const BOOLEAN_FLAGS = new Set(["--json", "--help", "--version", "--quiet", "--exit-zero", "--no-cache"]);
 
 function parseArgs(argv: readonly string[]): Parsed | string {
   const positional: string[] = [];
@@ -123,6 +128,12 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
       io.err(`steelyard: --compare-to is an option of build (the changes page of the site)\n`);
       return 2;
     }
+    for (const f of ["--cache-dir", "--no-cache"]) {
+      if (flags.has(f)) {
+        io.err(`steelyard: ${f} is an option of build (its cache of audits and pages)\n`);
+        return 2;
+      }
+    }
     const report = await runAudit(recordsDir, options);
     io.out(flags.has("--json") ? JSON.stringify(report, null, 2) + "\n" : textReport(report));
     return exitCodeFor(report);
@@ -131,21 +142,26 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
   const outDir = path.resolve(String(flags.get("--out") ?? "_site"));
   const basePath = String(flags.get("--base-path") ?? "/");
   const compareTo = flags.get("--compare-to");
+  if (flags.has("--no-cache") && flags.has("--cache-dir")) {
+    io.err(`steelyard: --no-cache and --cache-dir contradict each other; give one\n`);
+    return 2;
+  }
+  const cacheDir = flags.has("--no-cache") ? undefined : path.resolve(String(flags.get("--cache-dir") ?? DEFAULT_CACHE_DIR));
   const { buildSite } = await import("./site/build.js");
-  const { report, pages, compareProblems } = await buildSite({
+  const { summary: s, problemCount, exitCode, pages, compareProblems } = await buildSite({
     recordsDir,
     outDir,
     basePath,
     quiet: flags.has("--quiet"),
     audit: options,
     ...(typeof compareTo === "string" ? { compareTo: path.resolve(compareTo) } : {}),
+    ...(cacheDir !== undefined ? { cacheDir } : {}),
   });
-  const s = report.summary;
   io.out(
     `Wrote ${pages} pages to ${outDir}: ${s.objects} objects, ${s.measurements} measurements, ` +
-      `${report.problems.length} problems in ${s.files_with_problems} files.\n`,
+      `${problemCount} problems in ${s.files_with_problems} files.\n`,
   );
   for (const p of compareProblems) io.err(`steelyard: --compare-to: ${p.message}${p.hint ? ` (${p.hint})` : ""}\n`);
   if (compareProblems.length > 0) return 2;
-  return flags.has("--exit-zero") ? 0 : exitCodeFor(report);
+  return flags.has("--exit-zero") ? 0 : exitCode;
 }

@@ -8,7 +8,8 @@ import { findUnit } from "../units/catalog.js";
 import { describeDimension, sameDimension, GRAVITATIONAL_PARAMETER, MASS, type Dimension } from "../units/dimension.js";
 import type { Unit } from "../units/unit.js";
 import { propagateFirstOrder, varianceShares, type SideUncertainty } from "../uncertainty/first-order.js";
-import { runMonteCarlo, summarizeSorted, type DrawInput } from "../uncertainty/monte-carlo.js";
+import type { MonteCarloRun } from "../uncertainty/monte-carlo.js";
+import { runMonteCarloJob, type MonteCarloJob } from "../uncertainty/monte-carlo-job.js";
 import { hashSeed } from "../uncertainty/random.js";
 import { compare, worstStatus } from "./compare.js";
 import type {
@@ -146,24 +147,76 @@ export function measurementSeed(objectId: string, key: string): number {
   return hashSeed(`${objectId}/${key}`);
 }
 
-export function auditMeasurement(objectId: string, method: MethodDefinition, m: MeasurementRecord, options: AuditOptions): MeasurementAudit {
+/** The Monte Carlo of one measurement, or undefined when no draws are asked for. */
+export function monteCarloJob(objectId: string, method: MethodDefinition, m: MeasurementRecord, options: AuditOptions): MonteCarloJob | undefined {
+  if (!(options.draws > 0)) return undefined;
+  const inputs = Object.keys(m.inputs).sort().map((slot) => ({ slot, ...slotValue(m.inputs[slot]) }));
+  return { method: method.id, inputs, draws: options.draws, seed: measurementSeed(objectId, m.key) };
+}
+
+/**
+ * The audit of one measurement. `monteCarlo`, when given, is the finished run
+ * of `monteCarloJob` for it (as from a worker thread); otherwise the draws are
+ * made here when `options.draws` > 0.
+ */
+export function auditMeasurement(
+  objectId: string,
+  method: MethodDefinition,
+  m: MeasurementRecord,
+  options: AuditOptions,
+  monteCarlo?: MonteCarloRun,
+): MeasurementAudit {
+  const audit = auditWithoutDraws(objectId, method, m, options);
+  const job = monteCarlo === undefined ? monteCarloJob(objectId, method, m, options) : undefined;
+  const mc = monteCarlo ?? (job ? runMonteCarloJob(method, job) : undefined);
+  return mc ? withMonteCarlo(audit, mc, method, options) : audit;
+}
+
+/** Adds the Monte Carlo summary to each result it covers, as the last field of the result. */
+export function withMonteCarlo(audit: MeasurementAudit, mc: MonteCarloRun, method: MethodDefinition, options: AuditOptions): MeasurementAudit {
+  if (mc.draws === 0) return audit;
+  const K = options.constants ?? DEFAULT_SET;
+  const results: Record<string, ResultAudit> = {};
+  for (const [name, entry] of Object.entries(audit.results)) {
+    const s = mc.summaries[name];
+    const def = method.results.find((r) => r.name === name);
+    if (!s || !def) {
+      results[name] = entry;
+      continue;
+    }
+    const f = isMass(def.dimension) ? 1 / K.G.value : 1;
+    results[name] = {
+      ...entry,
+      mc: {
+        draws: mc.draws,
+        rejected: mc.rejected,
+        median_si: s.median * f,
+        p16_si: s.p16 * f,
+        p84_si: s.p84 * f,
+        mean_si: s.mean * f,
+        sd_si: s.sd * f,
+      },
+    };
+  }
+  return { ...audit, results };
+}
+
+/** The audit of one measurement without its Monte Carlo. */
+export function auditWithoutDraws(objectId: string, method: MethodDefinition, m: MeasurementRecord, options: AuditOptions): MeasurementAudit {
   const K = options.constants ?? DEFAULT_SET;
   const gRel = relativeUncertainty(K.G);
   const slots = Object.keys(m.inputs).sort();
   const si: Record<string, number> = {};
   const sides: Record<string, SideUncertainty> = {};
-  const draws: DrawInput[] = [];
   for (const slot of slots) {
     const v = slotValue(m.inputs[slot]);
     si[slot] = v.value;
     sides[slot] = { plus: v.plus, minus: v.minus };
-    draws.push({ slot, ...v });
   }
 
   const computed = method.compute(si);
   const partials = method.partials(si);
   const seed = measurementSeed(objectId, m.key);
-  const mc = options.draws > 0 ? runMonteCarlo(method, draws, options.draws, seed) : undefined;
 
   const labels: Record<string, string> = {};
   for (const i of method.inputs) labels[i.slot] = i.field.replace(/_/g, " ");
@@ -208,19 +261,6 @@ export function auditMeasurement(objectId: string, method: MethodDefinition, m: 
       ...inDisplayUnit(def, unit, { value: raw, sigma: fo.sigma }, { value: value_si, sigma }),
       budget,
     };
-    if (mc && mc.draws > 0 && mc.samples[def.name]) {
-      const s = summarizeSorted(mc.samples[def.name]);
-      const f = isMass(def.dimension) ? 1 / K.G.value : 1;
-      (entry as { mc?: ResultAudit["mc"] }).mc = {
-        draws: mc.draws,
-        rejected: mc.rejected,
-        median_si: s.median * f,
-        p16_si: s.p16 * f,
-        p84_si: s.p84 * f,
-        mean_si: s.mean * f,
-        sd_si: s.sd * f,
-      };
-    }
     results[def.name] = entry;
 
     if (pub) {

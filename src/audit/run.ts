@@ -1,9 +1,9 @@
 import { loadRecords } from "../records/load.js";
-import { auditRecords, type RunOptions } from "./audit-records.js";
+import { auditRecordsParallel, type RunOptions } from "./audit-records.js";
 import type { AuditReport } from "./types.js";
 
-/** Loads every record under `recordsDir` and audits it. */
+/** Loads every record under `recordsDir` and audits it, with the Monte Carlo of large runs on worker threads. */
 export async function runAudit(recordsDir: string, options: RunOptions = {}): Promise<AuditReport> {
   const outcome = await loadRecords(recordsDir);
-  return auditRecords(outcome, options);
+  return auditRecordsParallel(outcome, options);
 }

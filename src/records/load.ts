@@ -99,12 +99,59 @@ export function loadRecordText(text: string | Uint8Array, file: string, options:
   return record ? { record, problems } : { problems };
 }
 
+/** What one record file gives: its problems, and its record with where the id sits. */
+export interface FileOutcome extends TextOutcome {
+  readonly idLocation: Location;
+}
+
+/**
+ * One file's bytes as loadRecords reads them (for loaders that read and hash
+ * the files themselves, such as the build cache). Never throws.
+ */
+export function loadRecordBytes(bytes: Uint8Array, file: string, options: LoadOptions = {}): FileOutcome {
+  return loadDetailed(bytes, file, options);
+}
+
+/** The problems loadRecords gives a file over the size limit (it is not read). */
+export function fileTooLargeProblems(file: string, bytes: number, options: LoadOptions = {}): Problem[] {
+  const list = new ProblemList(file);
+  tooLarge(list, bytes, options.maxFileBytes ?? DEFAULT_MAX_FILE_BYTES);
+  return list.items;
+}
+
+/** The problems loadRecords gives a file it cannot read. */
+export function fileUnreadableProblems(file: string, error: Error): Problem[] {
+  const list = new ProblemList(file);
+  list.add({
+    code: "file-unreadable",
+    path: "",
+    location: WHOLE_FILE,
+    message: `the file could not be read: ${error.message}`,
+    hint: "check the file's permissions",
+  });
+  return list.items;
+}
+
+/** The problem loadRecords gives the second file that uses an object id. */
+export function duplicateIdProblem(file: string, idLocation: Location, id: string, firstFile: string): Problem {
+  return {
+    code: "duplicate-id",
+    severity: "error",
+    file,
+    line: idLocation.line,
+    column: idLocation.column,
+    path: "id",
+    message: `object id '${id}' is already used by ${firstFile}; this file is left out`,
+    hint: `give one of ${firstFile} and ${file} another id`,
+  };
+}
+
 function isRecordFile(name: string): boolean {
   return /\.ya?ml$/i.test(name);
 }
 
 /** Relative paths (forward slashes) of every record file under `dir`, sorted. */
-async function listRecordFiles(dir: string): Promise<string[]> {
+export async function listRecordFiles(dir: string): Promise<string[]> {
   const out: string[] = [];
   const walk = async (absolute: string, relative: string) => {
     const entries = await readdir(absolute, { withFileTypes: true });

@@ -1,5 +1,14 @@
 import type { AuditReport } from "../audit/types.js";
 import type { PreviousAudit } from "./changes-view.js";
+import type { OutputManifest } from "../cache/output-manifest.js";
+
+/** What a cached build knows about its inputs, for keeping downloads that would come out the same. */
+export interface SiteCache {
+  /** What the last cached build wrote into this output folder (saved after the downloads). */
+  readonly manifest: OutputManifest;
+  /** The key of the whole report (every record file's key, in order); undefined when unknown. */
+  readonly reportKey?: string;
+}
 
 /**
  * buildSite runs the audit once, then has Eleventy load the configuration
@@ -13,6 +22,12 @@ export interface PreparedSite {
   readonly recordsDir?: string;
   /** The previous release's audit, already read, for the changes page. */
   readonly previous?: PreviousAudit;
+  /** Reuse unchanged object pages and downloads (absent: write everything). */
+  readonly cache?: SiteCache;
+  /** Worker threads for the object pages (default os.availableParallelism(); 0: this thread). */
+  readonly pageWorkers?: number;
+  /** The object pages are already written (by the build pipeline): the plugin leaves them alone. */
+  readonly objectPagesWritten?: boolean;
 }
 
 const SLOT = Symbol.for("steelyard.site.prepared");

@@ -1,40 +1,132 @@
-import { mkdir, writeFile } from "node:fs/promises";
-import path from "node:path";
-import nunjucks from "nunjucks";
-import type { SiteData } from "./site-data.js";
+import { existsSync } from "node:fs";
+import { availableParallelism } from "node:os";
+import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
+import type { ObjectAudit } from "../audit/types.js";
+import type { OutputManifest } from "../cache/output-manifest.js";
+import type { Problem } from "../problem.js";
+import type { PageWorkerData, PageWorkerReply, PageWorkerRequest } from "./object-page-worker.js";
+import { createPageRenderer, type PageInput, type PageSite } from "./page-render.js";
+import { renderAndWrite, type WrittenPage } from "./page-writer.js";
 import { objectPath } from "./table.js";
 
+export { NUNJUCKS_OPTIONS } from "./page-render.js";
+
 /**
- * The object pages are rendered here, one at a time, and written at once,
- * instead of as an Eleventy pagination: Eleventy keeps every page it renders
- * in memory until the build ends, which at ten thousand objects of equations
- * runs out of heap. The same layout (base.njk) and includes are used, through
- * a Nunjucks environment with the options the plugin gives Eleventy's.
+ * The object pages are rendered here, one at a time, and each is written as
+ * soon as it is rendered, instead of as an Eleventy pagination: Eleventy keeps
+ * every page it renders in memory until the build ends, which at ten thousand
+ * objects of equations runs out of heap. Large runs are shared among worker
+ * threads, each with its own Nunjucks environment, fed a few batches at a time
+ * so the queue never holds the catalogue twice. With a manifest, a page whose
+ * key (what it is rendered from) is unchanged and whose file is untouched is
+ * neither rendered nor written, and pages of objects that are gone are removed.
  */
-export const NUNJUCKS_OPTIONS = Object.freeze({ autoescape: true, trimBlocks: true, lstripBlocks: true, throwOnUndefined: false });
 
 export interface ObjectPagesOptions {
   /** The site's _includes folder (layouts and partials). */
   readonly includesDir: string;
   /** The output folder of the build. */
   readonly outDir: string;
+  readonly site: PageSite;
+  readonly objects: readonly ObjectAudit[];
+  /** The problems of one record file. */
+  readonly problemsOf: (file: string) => readonly Problem[];
+  /** Reuse pages: the manifest of the output folder and each page's key by object id (no key: always rendered). */
+  readonly cache?: { readonly manifest: OutputManifest; readonly keys: ReadonlyMap<string, string> };
+  /** Worker threads; default os.availableParallelism(); 0 renders on this thread. */
+  readonly workers?: number;
+  /** Fewer pages to render than this stay on this thread. Default 200. */
+  readonly minPagesForWorkers?: number;
 }
 
-/** Renders and writes objects/<id>/index.html for every object; resolves to the number written. */
-export async function writeObjectPages(data: SiteData, options: ObjectPagesOptions): Promise<number> {
-  const env = new nunjucks.Environment(new nunjucks.FileSystemLoader(options.includesDir), { ...NUNJUCKS_OPTIONS });
-  const body = env.getTemplate("object-page.njk", true);
-  const layout = env.getTemplate("base.njk", true);
-  let written = 0;
-  for (const obj of data.objects) {
-    // objectPath refuses ids that are not slugs, so no page can land outside objects/
-    const file = path.join(options.outDir, objectPath(obj.id), "index.html");
-    const vars = { steelyard: data, obj, katex: true, pageKind: "object" };
-    const content = body.render(vars);
-    const html = layout.render({ ...vars, content });
-    await mkdir(path.dirname(file), { recursive: true });
-    await writeFile(file, html);
-    written++;
+export interface ObjectPagesOutcome {
+  readonly pages: number;
+  readonly written: number;
+  readonly kept: number;
+  readonly removed: number;
+}
+
+/** The compiled worker beside this module, or undefined when running from the TypeScript sources. */
+export function pageWorkerUrl(): URL | undefined {
+  const url = new URL("./object-page-worker.js", import.meta.url);
+  if (url.protocol !== "file:" || !fileURLToPath(import.meta.url).endsWith(".js")) return undefined;
+  return existsSync(fileURLToPath(url)) ? url : undefined;
+}
+
+const BATCH = 32;
+const IN_FLIGHT = 2;
+
+function renderOnWorkers(url: URL, count: number, data: PageWorkerData, inputs: readonly PageInput[], onWritten: (p: WrittenPage) => void): Promise<void> {
+  const batches: PageInput[][] = [];
+  for (let i = 0; i < inputs.length; i += BATCH) batches.push(inputs.slice(i, i + BATCH));
+  let next = 0;
+  let done = 0;
+  return new Promise<void>((resolve, reject) => {
+    const workers: Worker[] = [];
+    let failed = false;
+    const fail = (error: Error): void => {
+      if (failed) return;
+      failed = true;
+      for (const w of workers) void w.terminate();
+      reject(error);
+    };
+    const feed = (w: Worker): void => {
+      if (failed || next >= batches.length) return;
+      const batch = next++;
+      w.postMessage({ kind: "pages", batch, pages: batches[batch] } satisfies PageWorkerRequest);
+    };
+    for (let k = 0; k < count; k++) {
+      const w = new Worker(url, { workerData: data });
+      workers.push(w);
+      w.on("message", (reply: PageWorkerReply) => {
+        if (reply.kind === "failed") {
+          fail(new Error(`object page worker: ${reply.message}`));
+          return;
+        }
+        for (const p of reply.pages) onWritten(p);
+        if (++done === batches.length) {
+          for (const x of workers) x.postMessage({ kind: "end" } satisfies PageWorkerRequest);
+          resolve();
+        } else feed(w);
+      });
+      w.on("error", (e) => fail(e instanceof Error ? e : new Error(String(e))));
+      w.on("exit", (code) => {
+        if (done < batches.length) fail(new Error(`object page worker stopped (exit code ${code}) before its pages were written`));
+      });
+    }
+    for (let i = 0; i < IN_FLIGHT; i++) for (const w of workers) feed(w);
+  });
+}
+
+/** Renders and writes objects/<id>/index.html for every object (reusing what the manifest allows). */
+export async function writeObjectPages(options: ObjectPagesOptions): Promise<ObjectPagesOutcome> {
+  const { outDir, cache } = options;
+  const todo: PageInput[] = [];
+  const current = new Set<string>();
+  let kept = 0;
+  for (const obj of options.objects) {
+    const rel = `${objectPath(obj.id)}index.html`;
+    current.add(rel);
+    const key = cache?.keys.get(obj.id);
+    if (cache && key !== undefined && cache.manifest.reuse(rel, key)) {
+      kept++;
+      continue;
+    }
+    todo.push({ obj, problems: options.problemsOf(obj.file) });
   }
-  return written;
+  const onWritten = (p: WrittenPage): void => {
+    const key = cache?.keys.get(p.id);
+    if (cache && key !== undefined) cache.manifest.wrote(`${objectPath(p.id)}index.html`, key, p.size, p.mtimeMs);
+  };
+  const workers = options.workers ?? Math.max(1, availableParallelism());
+  const url = workers > 0 && todo.length >= (options.minPagesForWorkers ?? 200) ? pageWorkerUrl() : undefined;
+  if (url) {
+    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site }, todo, onWritten);
+  } else {
+    const render = createPageRenderer(options.includesDir, options.site);
+    for (const input of todo) onWritten(renderAndWrite(render, input, outDir));
+  }
+  const removed = cache ? cache.manifest.removeStale("objects/", current) : 0;
+  return { pages: options.objects.length, written: todo.length, kept, removed };
 }

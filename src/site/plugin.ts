@@ -4,12 +4,14 @@ import type { AuditReport } from "../audit/types.js";
 import { ALL_CONSTANTS } from "../constants/sets.js";
 import { METHODS } from "../methods/index.js";
 import { normalizeBasePath } from "./base-path.js";
-import { DOWNLOADS } from "./downloads.js";
 import type { EleventyConfigApi } from "./eleventy-config.js";
 import { takePreparedSite } from "./handoff.js";
 import { CONTENT_DIR, DEMO_RECORDS, KATEX_DIST } from "./paths.js";
 import { buildSiteData, type SiteData } from "./site-data.js";
-import { NUNJUCKS_OPTIONS, writeObjectPages } from "./object-pages.js";
+import { NUNJUCKS_OPTIONS, writeObjectPages, type ObjectPagesOutcome } from "./object-pages.js";
+import { writeDownloads } from "./download-files.js";
+import type { SiteCache } from "./handoff.js";
+import { pageSite } from "./page-render.js";
 import type { PreviousAudit } from "./changes-view.js";
 import { readAuditJson } from "../releases/read-audit-json.js";
 
@@ -32,6 +34,9 @@ interface ResolvedOptions {
   readonly report?: AuditReport;
   readonly draws?: number;
   readonly previous?: PreviousAudit;
+  readonly cache?: SiteCache;
+  readonly pageWorkers?: number;
+  readonly objectPagesWritten?: boolean;
 }
 
 function resolveOptions(options: SteelyardPluginOptions): ResolvedOptions {
@@ -49,6 +54,9 @@ function resolveOptions(options: SteelyardPluginOptions): ResolvedOptions {
   };
   if (report !== undefined) out.report = report;
   if (options.draws !== undefined) out.draws = options.draws;
+  if (prepared?.cache) out.cache = prepared.cache;
+  if (prepared?.pageWorkers !== undefined) out.pageWorkers = prepared.pageWorkers;
+  if (prepared?.objectPagesWritten) out.objectPagesWritten = true;
   if (prepared?.previous) out.previous = prepared.previous;
   else if (!prepared && options.compareTo !== undefined) {
     const file = path.resolve(options.compareTo);
@@ -108,20 +116,44 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
   // filters) across builds in one process, so whatever depends on the build,
   // such as the base path, is read from `steelyard` instead.
 
-  // one page per object, written after Eleventy's own pages (see object-pages.ts)
-  eleventyConfig.on("eleventy.after", async (event: { directories?: { output?: string }; outputMode?: string }) => {
+  // One page per object (see object-pages.ts), rendered on worker threads
+  // while Eleventy builds its own pages, then the downloads, written here
+  // rather than as Eleventy templates so the audit can be streamed to disk
+  // and an unchanged download kept.
+  const includesDir = path.join(CONTENT_DIR, "_includes");
+  let pagesRun: Promise<ObjectPagesOutcome | undefined> | undefined;
+  eleventyConfig.on("eleventy.before", (event: { directories?: { output?: string }; outputMode?: string }) => {
     const outDir = event.directories?.output;
     if (event.outputMode !== "fs" || !outDir) return;
-    await writeObjectPages(await siteData(), { includesDir: path.join(CONTENT_DIR, "_includes"), outDir });
+    pagesRun = resolved.objectPagesWritten
+      ? Promise.resolve(undefined)
+      : siteData().then((data) =>
+          writeObjectPages({
+            includesDir,
+            outDir: path.resolve(outDir),
+            site: pageSite(data),
+            objects: data.objects,
+            problemsOf: data.problemsOf,
+            ...(resolved.pageWorkers !== undefined ? { workers: resolved.pageWorkers } : {}),
+          }),
+        );
+    // a failure is reported by the after hook, not as an unhandled rejection
+    pagesRun.catch(() => undefined);
   });
-
-  for (const d of DOWNLOADS) {
-    eleventyConfig.addTemplate(
-      `downloads/${d.key}.11ty.js`,
-      { render: async () => d.render(await report()) },
-      { permalink: d.path, eleventyExcludeFromCollections: true },
+  eleventyConfig.on("eleventy.after", async (event: { directories?: { output?: string }; outputMode?: string }) => {
+    const outDir = event.directories?.output;
+    if (event.outputMode !== "fs" || !outDir || !pagesRun) return;
+    const run = pagesRun;
+    pagesRun = undefined;
+    await run;
+    const cache = resolved.cache;
+    // the manifest is saved by buildSite, once the whole build has succeeded
+    writeDownloads(
+      await report(),
+      path.resolve(outDir),
+      cache?.reportKey !== undefined ? { manifest: cache.manifest, reportKey: cache.reportKey } : undefined,
     );
-  }
+  });
 
   // the changes page exists only when there is a previous release to compare with
   if (resolved.previous) {

@@ -1,4 +1,5 @@
 import type { AuditReport, ObjectAudit } from "../audit/types.js";
+import type { Problem } from "../problem.js";
 import type { Constant } from "../constants/constant.js";
 import type { MethodDefinition } from "../methods/method.js";
 import { underBase } from "./base-path.js";
@@ -31,6 +32,8 @@ export interface SiteData {
   readonly changes?: ChangesView;
   /** The audit page of one object (built when its page is rendered). */
   objectPage(obj: ObjectAudit): ObjectPageView;
+  /** The problems of one record file. */
+  problemsOf(file: string): readonly Problem[];
   /** A site path under the base path: {{ steelyard.link("objects/x/") }}. */
   link(sitePath: string): string;
 }
@@ -63,6 +66,7 @@ export function buildSiteData(input: SiteInputs): SiteData {
     constants: constantsView(input.constants),
     downloads: DOWNLOADS.map(({ key, path, title, format }) => ({ key, path, title, format })),
     objectPage: (obj: ObjectAudit) => objectPageView(obj, lookup, byFile.get(obj.file) ?? []),
+    problemsOf: (file: string) => byFile.get(file) ?? [],
     link: (sitePath: string) => underBase(input.basePath, String(sitePath)),
     ...(input.previous ? { changes: changesView(report, input.previous) } : {}),
   });

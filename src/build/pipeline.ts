@@ -1,0 +1,406 @@
+import { existsSync, lstatSync, readFileSync, statSync } from "node:fs";
+import { availableParallelism } from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { Worker } from "node:worker_threads";
+import { DEFAULT_DRAWS, type RunOptions } from "../audit/audit-records.js";
+import { DEFAULT_THRESHOLDS } from "../audit/compare.js";
+import { runAudit } from "../audit/run.js";
+import { STATUSES, type AuditReport, type ObjectAudit, type Status } from "../audit/types.js";
+import { cacheFileFor } from "../cache/cache-dir.js";
+import { readRecordStore, writeRecordStore } from "../cache/record-store.js";
+import { digest } from "../cache/digest.js";
+import { folderDigest, toolFingerprint } from "../cache/fingerprint.js";
+import type { OutputManifest } from "../cache/output-manifest.js";
+import { DEFAULT_SET } from "../constants/sets.js";
+import type { Problem } from "../problem.js";
+import { DEFAULT_MAX_FILE_BYTES, duplicateIdProblem, fileTooLargeProblems, fileUnreadableProblems, listRecordFiles } from "../records/load.js";
+import { compareProblems, compareText } from "../records/problem-list.js";
+import { createPageRenderer, type PageSite } from "../site/page-render.js";
+import { objectPath } from "../site/table.js";
+import { VERSION } from "../version.js";
+import {
+  auditEntriesParallel,
+  fileProblems,
+  parseFiles,
+  sortAsReport,
+  writeEntryPages,
+  type FileToAudit,
+  type PageWritten,
+  type RecordEntry,
+} from "./record-work.js";
+import type { RecordWorkerData, RecordWorkerReply, RecordWorkerRequest } from "./record-worker.js";
+
+export type { RecordEntry } from "./record-work.js";
+
+/**
+ * The audit of a records folder, with a content-hashed cache and, when asked,
+ * the object pages written as the records are audited.
+ *
+ * Each record file is keyed by its path, its bytes, the tool (version and
+ * code) and the audit settings; the cache keeps its load problems, its parsed
+ * record and its audit (results with Monte Carlo, diagnoses, combined values),
+ * so an unchanged file is neither parsed nor audited again. The files to audit
+ * are shared among worker threads, each parsing, auditing and writing pages
+ * for its share. The report is the same, value for value and key for key, as
+ * `runAudit` gives.
+ *
+ * An object page is keyed by its record file's key and the site-wide inputs
+ * (see pageSiteKey); with a manifest of the output folder, a page whose key
+ * is unchanged and whose file is untouched is not written again.
+ */
+
+export interface PipelineOptions {
+  readonly audit: RunOptions;
+  /** Folder of the cache files; absent: no cache is read or written. */
+  readonly cacheDir?: string;
+  /** Write the object pages as the records are audited. */
+  readonly pages?: {
+    readonly includesDir: string;
+    readonly outDir: string;
+    readonly site: PageSite;
+    /** What the last cached build wrote into outDir; absent: every page is written. */
+    readonly manifest?: OutputManifest;
+  };
+  /** Worker threads; default os.availableParallelism(); 0 works on this thread. */
+  readonly workers?: number;
+  /** Fewer files to audit than this stay on this thread. Default 200. */
+  readonly minFilesForWorkers?: number;
+}
+
+export interface PipelineStats {
+  readonly files: number;
+  /** Files whose entry was reused: neither parsed nor audited. */
+  readonly reused: number;
+  /** Record files parsed and audited in this run. */
+  readonly audited: number;
+  readonly pagesWritten: number;
+  readonly pagesKept: number;
+  readonly pagesRemoved: number;
+}
+
+export interface PipelineOutcome {
+  readonly report: AuditReport;
+  readonly stats: PipelineStats;
+  /** The key of the whole report (every file's path and key, in order); undefined when a file could not be read. */
+  readonly reportKey?: string;
+}
+
+/** The settings of the report the options give (as auditRecords resolves them). */
+export function reportSettings(options: RunOptions): AuditReport["settings"] {
+  return {
+    thresholds: { ...DEFAULT_THRESHOLDS, ...(options.thresholds ?? {}) },
+    draws: options.draws ?? DEFAULT_DRAWS,
+    constants: DEFAULT_SET.id,
+  };
+}
+
+/** The part of a record file's key shared by every file: the tool, the settings, the size limit. */
+export function settingsKey(options: RunOptions, maxFileBytes = DEFAULT_MAX_FILE_BYTES): string {
+  return digest([toolFingerprint(), JSON.stringify({ ...reportSettings(options), maxFileBytes })]);
+}
+
+/** The key of an object page: the site-wide inputs and the key of its record file. */
+export function pageKey(siteKey: string, entryKey: string): string {
+  return digest([siteKey, entryKey]);
+}
+
+function isFolder(dir: string): boolean {
+  try {
+    return statSync(dir).isDirectory();
+  } catch {
+    return false;
+  }
+}
+
+/** The compiled worker beside this module, or undefined when running from the TypeScript sources. */
+export function recordWorkerUrl(): URL | undefined {
+  const url = new URL("./record-worker.js", import.meta.url);
+  if (url.protocol !== "file:" || !fileURLToPath(import.meta.url).endsWith(".js")) return undefined;
+  return existsSync(fileURLToPath(url)) ? url : undefined;
+}
+
+const BATCH = 16;
+const IN_FLIGHT = 2;
+
+function auditOnWorkers(
+  url: URL,
+  count: number,
+  data: RecordWorkerData,
+  files: readonly FileToAudit[],
+  onDone: (entries: readonly RecordEntry[], pages: readonly PageWritten[]) => void,
+): Promise<void> {
+  const batches: FileToAudit[][] = [];
+  for (let i = 0; i < files.length; i += BATCH) batches.push(files.slice(i, i + BATCH));
+  let next = 0;
+  let done = 0;
+  return new Promise<void>((resolve, reject) => {
+    const workers: Worker[] = [];
+    let failed = false;
+    const fail = (error: Error): void => {
+      if (failed) return;
+      failed = true;
+      for (const w of workers) void w.terminate();
+      reject(error);
+    };
+    const feed = (w: Worker): void => {
+      if (failed || next >= batches.length) return;
+      const batch = next++;
+      w.postMessage({ kind: "files", batch, files: batches[batch] } satisfies RecordWorkerRequest);
+    };
+    for (let k = 0; k < count; k++) {
+      const w = new Worker(url, { workerData: data });
+      workers.push(w);
+      w.on("message", (reply: RecordWorkerReply) => {
+        if (reply.kind === "failed") {
+          fail(new Error(`build worker: ${reply.message}`));
+          return;
+        }
+        onDone(reply.entries, reply.pages);
+        if (++done === batches.length) {
+          for (const x of workers) x.postMessage({ kind: "end" } satisfies RecordWorkerRequest);
+          resolve();
+        } else feed(w);
+      });
+      w.on("error", (e) => fail(e instanceof Error ? e : new Error(String(e))));
+      w.on("exit", (code) => {
+        if (done < batches.length) fail(new Error(`build worker stopped (exit code ${code}) before its records were audited`));
+      });
+    }
+    for (let i = 0; i < IN_FLIGHT; i++) for (const w of workers) feed(w);
+  });
+}
+
+/** Every record file of a folder with its key (read and hashed, not parsed). */
+export interface FolderKeys {
+  readonly dir: string;
+  readonly files: readonly string[];
+  readonly shared: string;
+  /** Per file, its key, or the entry made without parsing it (over the size limit, unreadable). */
+  readonly keys: ReadonlyArray<string | RecordEntry>;
+  /** The key of the whole report; undefined when a file could not be read. */
+  readonly reportKey?: string;
+}
+
+function readKeyed(absolute: string, file: string, shared: string): { key: string; bytes: Buffer } | RecordEntry {
+  try {
+    const size = lstatSync(absolute).size;
+    if (size > DEFAULT_MAX_FILE_BYTES) return { file, key: digest([shared, file, `size:${size}`]), problems: fileTooLargeProblems(file, size) };
+    const bytes = readFileSync(absolute);
+    return { key: digest([shared, file, bytes]), bytes };
+  } catch (e) {
+    return { file, key: "", problems: fileUnreadableProblems(file, e as Error) };
+  }
+}
+
+/** Reads and keys every record file of `recordsDir`; undefined when it is not a readable folder. */
+export async function keyRecordFolder(recordsDir: string, audit: RunOptions): Promise<FolderKeys | undefined> {
+  const dir = path.resolve(recordsDir);
+  if (!isFolder(dir)) return undefined;
+  let files: string[];
+  try {
+    files = await listRecordFiles(dir);
+  } catch {
+    return undefined;
+  }
+  const shared = settingsKey(audit);
+  const keys = files.map((file) => {
+    const r = readKeyed(path.join(dir, ...file.split("/")), file, shared);
+    return "bytes" in r ? r.key : r;
+  });
+  const flat = keys.map((k) => (typeof k === "string" ? k : k.key));
+  const out = { dir, files, shared, keys };
+  return flat.includes("") ? out : { ...out, reportKey: digest([shared, ...files.flatMap((f, i) => [f, flat[i]])]) };
+}
+
+/** The cache folder of one records folder. */
+export function recordCacheFolder(cacheDir: string, recordsDir: string): string {
+  return cacheFileFor(cacheDir, "records", path.resolve(recordsDir)).replace(/\.bin$/, "");
+}
+
+/** Reads the cache of a records folder: its entries by file. */
+export function readRecordCache(cacheDir: string, recordsDir: string): Map<string, RecordEntry> {
+  return readRecordStore<RecordEntry>(recordCacheFolder(cacheDir, recordsDir));
+}
+
+/** Audits `recordsDir` (reusing and updating the cache) and, when asked, writes the object pages. */
+export async function runPipeline(recordsDir: string, options: PipelineOptions, keyed?: FolderKeys): Promise<PipelineOutcome> {
+  const dir = path.resolve(recordsDir);
+  const pages = options.pages;
+  const folder = keyed ?? (await keyRecordFolder(dir, options.audit));
+  if (folder === undefined) {
+    // a missing or unreadable folder: one problem, nothing to cache, no object pages
+    const report = await runAudit(dir, options.audit);
+    return { report, stats: { files: 0, reused: 0, audited: 0, pagesWritten: 0, pagesKept: 0, pagesRemoved: 0 } };
+  }
+  const { files, shared } = folder;
+  const cacheFolder = options.cacheDir !== undefined ? recordCacheFolder(options.cacheDir, dir) : undefined;
+  const previous = options.cacheDir !== undefined ? readRecordCache(options.cacheDir, dir) : new Map<string, RecordEntry>();
+  const siteKey = pages ? pageSiteKey(pages.includesDir, pages.site) : "";
+
+  // reuse what the cache holds; read the rest again to parse it
+  const slots: Array<RecordEntry | undefined> = new Array(files.length);
+  const index = new Map<string, number>();
+  const toAudit: FileToAudit[] = [];
+  let reused = 0;
+  files.forEach((file, i) => {
+    index.set(file, i);
+    const known = folder.keys[i];
+    if (typeof known !== "string") {
+      slots[i] = known;
+      return;
+    }
+    const before = previous.get(file);
+    // an entry is reused only with its audit (a record read but never audited is read again)
+    if (before && before.key === known && (before.audit !== undefined || before.id === undefined)) {
+      slots[i] = before;
+      reused++;
+      return;
+    }
+    const r = readKeyed(path.join(dir, ...file.split("/")), file, shared);
+    if ("bytes" in r) toAudit.push({ file, key: r.key, bytes: r.bytes });
+    else slots[i] = r;
+  });
+
+  // parse and audit the rest, writing their pages as they come
+  const written = new Map<string, PageWritten>();
+  const workers = options.workers ?? Math.max(1, availableParallelism());
+  const url = workers > 0 && toAudit.length >= (options.minFilesForWorkers ?? 200) ? recordWorkerUrl() : undefined;
+  if (url) {
+    const data: RecordWorkerData = {
+      options: options.audit,
+      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site } } : {}),
+    };
+    await auditOnWorkers(url, Math.min(workers, Math.ceil(toAudit.length / BATCH)), data, toAudit, (entries, done) => {
+      for (const e of entries) slots[index.get(e.file)!] = e;
+      for (const p of done) written.set(p.id, p);
+    });
+  } else if (toAudit.length > 0) {
+    const entries = parseFiles(toAudit);
+    await auditEntriesParallel(entries, options.audit);
+    for (const e of entries) slots[index.get(e.file)!] = e;
+    if (pages) for (const p of writeEntryPages(entries, createPageRenderer(pages.includesDir, pages.site), pages.outDir)) written.set(p.id, p);
+  }
+  const entries = slots as RecordEntry[];
+
+  const { report, kept, contested } = reportFromEntries(files, entries, options.audit);
+
+  let pagesWritten = 0;
+  let pagesKept = 0;
+  let pagesRemoved = 0;
+  if (pages) {
+    const { manifest } = pages;
+    const current = new Set<string>();
+    const render = new Map<string, RecordEntry>();
+    for (const e of kept) {
+      const obj = e.audit?.object;
+      if (!obj) continue;
+      const rel = `${objectPath(obj.id)}index.html`;
+      current.add(rel);
+      const key = pageKey(siteKey, e.key);
+      const w = written.get(obj.id);
+      // a page written for this entry, unless a duplicate of its id may have written over it
+      if (w && w.entryKey === e.key && !contested.has(obj.id)) {
+        manifest?.wrote(rel, key, w.size, w.mtimeMs);
+        pagesWritten++;
+      } else if (manifest && !w && manifest.reuse(rel, key)) {
+        pagesKept++;
+      } else render.set(obj.id, e);
+    }
+    if (render.size > 0) {
+      const renderer = createPageRenderer(pages.includesDir, pages.site);
+      for (const p of writeEntryPages([...render.values()], renderer, pages.outDir)) {
+        manifest?.wrote(`${objectPath(p.id)}index.html`, pageKey(siteKey, p.entryKey), p.size, p.mtimeMs);
+        pagesWritten++;
+      }
+    }
+    if (manifest) pagesRemoved = manifest.removeStale("objects/", current);
+  }
+
+  const unchanged = reused === entries.length && previous.size === entries.length;
+  if (cacheFolder && !unchanged) {
+    try {
+      writeRecordStore(cacheFolder, entries.filter((e) => e.key !== ""), previous);
+    } catch {
+      // a cache that cannot be written only makes the next build slower
+    }
+  }
+  const stats = { files: files.length, reused, audited: toAudit.length, pagesWritten, pagesKept, pagesRemoved };
+  if (entries.some((e) => e.key === "")) return { report, stats };
+  return { report, stats, reportKey: digest([shared, ...entries.flatMap((e) => [e.file, e.key])]) };
+}
+
+/**
+ * The report from every file's entry (each with a record audited): the first
+ * file in path order that uses an id keeps it, as loadRecords decides, and the
+ * report is assembled as auditRecords assembles it. Also gives the entries
+ * kept and the ids more than one file used.
+ */
+export function reportFromEntries(
+  files: readonly string[],
+  entries: readonly RecordEntry[],
+  audit: RunOptions,
+): { report: AuditReport; kept: RecordEntry[]; contested: Set<string> } {
+  const loadProblems: Problem[] = [];
+  const chosen = new Map<string, RecordEntry>();
+  const contested = new Set<string>();
+  for (const e of entries) {
+    loadProblems.push(...e.problems);
+    if (e.id === undefined) continue;
+    const first = chosen.get(e.id);
+    if (first) {
+      loadProblems.push(duplicateIdProblem(e.file, e.idLocation ?? { line: 0, column: 0 }, e.id, first.file));
+      contested.add(e.id);
+    } else chosen.set(e.id, e);
+  }
+  loadProblems.sort(compareProblems);
+  const kept = [...chosen.values()].sort((a, b) => compareText(a.id!, b.id!));
+  // every entry with a record is audited before this, duplicates included
+  const unaudited = kept.filter((e) => e.audit === undefined);
+  if (unaudited.length > 0) throw new Error(`build pipeline: ${unaudited.length} records were not audited`);
+  return { report: assemble(files, kept, loadProblems, audit), kept, contested };
+}
+
+/** The site-wide key of object pages: the tool, the layouts and includes, and what the pages read of the site. */
+export function pageSiteKey(includesDir: string, site: PageSite): string {
+  return digest([toolFingerprint(), includesDigest(includesDir), JSON.stringify(site)]);
+}
+
+function includesDigest(includesDir: string): string {
+  return folderDigest(includesDir, (n) => n.endsWith(".njk"));
+}
+
+/** The report from the entries, as auditRecords assembles it from a loaded folder. */
+function assemble(files: readonly string[], kept: readonly RecordEntry[], loadProblems: readonly Problem[], options: RunOptions): AuditReport {
+  const problems: Problem[] = [...loadProblems];
+  const objects: ObjectAudit[] = [];
+  const counts = Object.fromEntries(STATUSES.map((s) => [s, 0])) as Record<Status, number>;
+  let measurements = 0;
+  for (const e of kept) {
+    const audit = e.audit!;
+    problems.push(...audit.problems);
+    if (!audit.object) continue;
+    objects.push(audit.object);
+    for (const m of audit.object.measurements) counts[m.status]++;
+    measurements += audit.object.measurements.length;
+  }
+  sortAsReport(problems);
+  const withErrors = new Set<string>();
+  for (const p of problems) if (p.severity === "error") withErrors.add(p.file);
+  return {
+    tool: { name: "steelyard", version: VERSION },
+    settings: reportSettings(options),
+    summary: {
+      files: files.length,
+      files_audited: new Set(objects.map((o) => o.file)).size,
+      files_with_problems: withErrors.size,
+      objects: objects.length,
+      measurements,
+      status_counts: counts,
+    },
+    objects,
+    problems,
+  };
+}
+
+export { fileProblems };

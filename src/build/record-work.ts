@@ -1,0 +1,103 @@
+import { auditRecords, auditRecordsParallel, type RunOptions } from "../audit/audit-records.js";
+import type { ObjectAudit } from "../audit/types.js";
+import type { Problem } from "../problem.js";
+import { loadRecordBytes } from "../records/load.js";
+import type { Location, ObjectRecord } from "../records/types.js";
+import type { PageRenderer } from "../site/page-render.js";
+import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
+
+/** What the cache keeps of one record file. */
+export interface RecordEntry {
+  readonly file: string;
+  /** Digest of the tool, the audit settings, the path and the bytes; "" when the file could not be read. */
+  readonly key: string;
+  /** The file's own load problems, as the loader sorts them (a duplicate id is decided per build, not kept). */
+  readonly problems: readonly Problem[];
+  /** The object id of the file's record, when it has one. */
+  readonly id?: string;
+  readonly idLocation?: Location;
+  /** The parsed record, until it is audited (the cache keeps the audit, not the record). */
+  record?: ObjectRecord;
+  /** The audit of the record; absent until it has been audited. */
+  audit?: { readonly object?: ObjectAudit; readonly problems: readonly Problem[] };
+}
+
+/** A record file read and keyed, to be parsed and audited. */
+export interface FileToAudit {
+  readonly file: string;
+  readonly key: string;
+  readonly bytes: Uint8Array;
+}
+
+/** A page written while auditing: its object id, the entry key it came from, its size and time. */
+export interface PageWritten extends WrittenPage {
+  readonly entryKey: string;
+}
+
+/** Problems sorted as the report sorts them: by file, line, column and code, ties kept in order. */
+export function sortAsReport(problems: Problem[]): Problem[] {
+  return problems.sort(
+    (a, b) =>
+      (a.file < b.file ? -1 : a.file > b.file ? 1 : 0) ||
+      a.line - b.line ||
+      a.column - b.column ||
+      (a.code < b.code ? -1 : a.code > b.code ? 1 : 0),
+  );
+}
+
+/** The problems of an entry's file as the report lists them (its object page shows these). */
+export function fileProblems(entry: RecordEntry): Problem[] {
+  return sortAsReport([...entry.problems, ...(entry.audit?.problems ?? [])]);
+}
+
+/** Parses every file into an entry (the loader's own checks, in the same order). */
+export function parseFiles(files: readonly FileToAudit[]): RecordEntry[] {
+  return files.map(({ file, key, bytes }) => {
+    const outcome = loadRecordBytes(bytes, file);
+    return outcome.record
+      ? { file, key, problems: outcome.problems, id: outcome.record.id, idLocation: outcome.idLocation, record: outcome.record }
+      : { file, key, problems: outcome.problems };
+  });
+}
+
+function attachAudits(entries: readonly RecordEntry[], report: { objects: readonly ObjectAudit[]; problems: readonly Problem[] }): void {
+  const objects = new Map(report.objects.map((o) => [o.file, o]));
+  const problems = new Map<string, Problem[]>();
+  for (const p of report.problems) {
+    const list = problems.get(p.file);
+    if (list) list.push(p);
+    else problems.set(p.file, [p]);
+  }
+  for (const e of entries) {
+    const object = objects.get(e.file);
+    e.audit = object ? { object, problems: problems.get(e.file) ?? [] } : { problems: problems.get(e.file) ?? [] };
+    delete e.record;
+  }
+}
+
+function outcomeOf(entries: readonly RecordEntry[]) {
+  return { records: entries.map((e) => e.record!), problems: [], files: entries.map((e) => e.file), filesWithErrors: [] };
+}
+
+/** Audits the entries that hold a record, on this thread. */
+export function auditEntries(entries: readonly RecordEntry[], options: RunOptions): void {
+  const withRecord = entries.filter((e) => e.record);
+  if (withRecord.length > 0) attachAudits(withRecord, auditRecords(outcomeOf(withRecord), options));
+}
+
+/** Audits the entries that hold a record, with the Monte Carlo of large runs on worker threads. */
+export async function auditEntriesParallel(entries: readonly RecordEntry[], options: RunOptions): Promise<void> {
+  const withRecord = entries.filter((e) => e.record);
+  if (withRecord.length > 0) attachAudits(withRecord, await auditRecordsParallel(outcomeOf(withRecord), options));
+}
+
+/** Renders and writes the page of every audited entry that has an object. */
+export function writeEntryPages(entries: readonly RecordEntry[], render: PageRenderer, outDir: string): PageWritten[] {
+  const out: PageWritten[] = [];
+  for (const e of entries) {
+    const obj = e.audit?.object;
+    if (!obj) continue;
+    out.push({ ...renderAndWrite(render, { obj, problems: fileProblems(e) }, outDir), entryKey: e.key });
+  }
+  return out;
+}

@@ -1,0 +1,46 @@
+import { parentPort, workerData } from "node:worker_threads";
+import type { RunOptions } from "../audit/audit-records.js";
+import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
+import { auditEntries, parseFiles, writeEntryPages, type FileToAudit, type PageWritten, type RecordEntry } from "./record-work.js";
+
+/**
+ * A build worker: parses and audits the record files it is sent (Monte Carlo
+ * included, on this thread) and, when asked, renders and writes each
+ * object's page at once; it answers each batch with the entries and pages.
+ */
+
+export interface RecordWorkerData {
+  readonly options: RunOptions;
+  readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite };
+}
+
+export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
+
+export type RecordWorkerReply =
+  | { readonly kind: "done"; readonly batch: number; readonly entries: readonly RecordEntry[]; readonly pages: readonly PageWritten[] }
+  | { readonly kind: "failed"; readonly batch: number; readonly message: string };
+
+const port = parentPort;
+if (port) {
+  const data = workerData as RecordWorkerData;
+  let render: PageRenderer | undefined;
+  port.on("message", (msg: RecordWorkerRequest) => {
+    if (msg.kind === "end") {
+      port.close();
+      return;
+    }
+    try {
+      const entries = parseFiles(msg.files);
+      auditEntries(entries, data.options);
+      let pages: PageWritten[] = [];
+      if (data.pages) {
+        render ??= createPageRenderer(data.pages.includesDir, data.pages.site);
+        pages = writeEntryPages(entries, render, data.pages.outDir);
+      }
+      port.postMessage({ kind: "done", batch: msg.batch, entries, pages } satisfies RecordWorkerReply);
+    } catch (e) {
+      const error = e as Error;
+      port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies RecordWorkerReply);
+    }
+  });
+}

@@ -1,0 +1,102 @@
+import { closeSync, mkdirSync, openSync, readSync, renameSync, rmSync, writeSync } from "node:fs";
+import path from "node:path";
+import { deserialize, serialize } from "node:v8";
+
+/**
+ * A cache file of many values, each in V8's serialization (which keeps -0,
+ * NaN, ±Infinity and undefined exactly, as JSON would not), written and read
+ * one value at a time, so that a catalogue's cache never has to sit in memory
+ * as one buffer. Layout: an 8-byte magic, then per value a 4-byte
+ * little-endian length and the bytes; the first value is a header naming the
+ * kind of cache and its format version. Anything missing, of another kind or
+ * version, truncated or damaged reads as nothing: the cache is then cold.
+ * Writes go to a temporary file renamed into place.
+ */
+
+const MAGIC = Buffer.from("STLYCHK1", "latin1");
+export const CHUNKED_FORMAT = 1;
+
+interface Header {
+  readonly kind: string;
+  readonly format: number;
+}
+
+/** Reads every value after the header, or undefined when the file is not a valid cache of `kind`. */
+export function readChunkedFile(file: string, kind: string): unknown[] | undefined {
+  let fd: number;
+  try {
+    fd = openSync(file, "r");
+  } catch {
+    return undefined;
+  }
+  try {
+    const values: unknown[] = [];
+    let buf = Buffer.alloc(1 << 20);
+    let start = 0;
+    let end = 0;
+    let eof = false;
+    // makes `n` bytes available from `start`; false at the end of the file
+    const need = (n: number): boolean => {
+      while (end - start < n && !eof) {
+        if (start > 0) {
+          buf.copy(buf, 0, start, end);
+          end -= start;
+          start = 0;
+        }
+        if (buf.length < n) {
+          const bigger = Buffer.alloc(Math.max(n, buf.length * 2));
+          buf.copy(bigger, 0, 0, end);
+          buf = bigger;
+        }
+        const got = readSync(fd, buf, end, buf.length - end, null);
+        if (got === 0) eof = true;
+        end += got;
+      }
+      return end - start >= n;
+    };
+    if (!need(MAGIC.length) || !buf.subarray(start, start + MAGIC.length).equals(MAGIC)) return undefined;
+    start += MAGIC.length;
+    let header: Header | undefined;
+    while (need(4)) {
+      const len = buf.readUInt32LE(start);
+      if (!need(4 + len)) return undefined;
+      const value = deserialize(buf.subarray(start + 4, start + 4 + len));
+      start += 4 + len;
+      if (header === undefined) {
+        header = value as Header;
+        if (!header || header.kind !== kind || header.format !== CHUNKED_FORMAT) return undefined;
+      } else values.push(value);
+    }
+    if (end !== start || header === undefined) return undefined;
+    return values;
+  } catch {
+    return undefined;
+  } finally {
+    closeSync(fd);
+  }
+}
+
+/** Writes the values, one at a time, behind a header of `kind`. */
+export function writeChunkedFile(file: string, kind: string, values: Iterable<unknown>): void {
+  mkdirSync(path.dirname(file), { recursive: true });
+  const tmp = `${file}.${process.pid}.tmp`;
+  const fd = openSync(tmp, "w");
+  let ok = false;
+  try {
+    writeSync(fd, MAGIC);
+    const put = (value: unknown): void => {
+      const bytes = serialize(value);
+      const len = Buffer.alloc(4);
+      len.writeUInt32LE(bytes.length);
+      writeSync(fd, len);
+      writeSync(fd, bytes);
+    };
+    put({ kind, format: CHUNKED_FORMAT } satisfies Header);
+    for (const v of values) put(v);
+    ok = true;
+  } finally {
+    closeSync(fd);
+    if (ok) renameSync(tmp, file);
+    else rmSync(tmp, { force: true });
+  }
+}

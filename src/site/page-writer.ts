@@ -1,0 +1,33 @@
+import { closeSync, fstatSync, mkdirSync, openSync, writeSync } from "node:fs";
+import path from "node:path";
+import { objectPath } from "./table.js";
+import type { PageInput, PageRenderer } from "./page-render.js";
+
+/** What was written for one page: enough to tell next time whether the file is still ours. */
+export interface WrittenPage {
+  readonly id: string;
+  readonly size: number;
+  readonly mtimeMs: number;
+}
+
+/** The output file of an object's page; objectPath refuses ids that are not slugs, so no page lands outside objects/. */
+export function objectPageFile(outDir: string, id: string): string {
+  return path.join(outDir, objectPath(id), "index.html");
+}
+
+/** Renders one page and writes it at once (synchronously: a page is small, and waiting on the thread pool per file costs more). */
+export function renderAndWrite(render: PageRenderer, input: PageInput, outDir: string): WrittenPage {
+  const html = render(input);
+  const file = objectPageFile(outDir, input.obj.id);
+  mkdirSync(path.dirname(file), { recursive: true });
+  const fd = openSync(file, "w");
+  try {
+    const bytes = Buffer.from(html, "utf8");
+    let off = 0;
+    while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
+    const info = fstatSync(fd);
+    return { id: input.obj.id, size: info.size, mtimeMs: info.mtimeMs };
+  } finally {
+    closeSync(fd);
+  }
+}
