@@ -2,7 +2,7 @@ import { existsSync, lstatSync, readFileSync, statSync } from "node:fs";
 import { availableParallelism } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { Worker } from "node:worker_threads";
+import { runBatches } from "../workers/batch-pool.js";
 import { DEFAULT_DRAWS, type RunOptions } from "../audit/audit-records.js";
 import { DEFAULT_THRESHOLDS } from "../audit/compare.js";
 import { runAudit } from "../audit/run.js";
@@ -130,44 +130,17 @@ function auditOnWorkers(
   files: readonly FileToAudit[],
   onDone: (entries: readonly RecordEntry[], pages: readonly PageWritten[]) => void,
 ): Promise<void> {
-  const batches: FileToAudit[][] = [];
-  for (let i = 0; i < files.length; i += BATCH) batches.push(files.slice(i, i + BATCH));
-  let next = 0;
-  let done = 0;
-  return new Promise<void>((resolve, reject) => {
-    const workers: Worker[] = [];
-    let failed = false;
-    const fail = (error: Error): void => {
-      if (failed) return;
-      failed = true;
-      for (const w of workers) void w.terminate();
-      reject(error);
-    };
-    const feed = (w: Worker): void => {
-      if (failed || next >= batches.length) return;
-      const batch = next++;
-      w.postMessage({ kind: "files", batch, files: batches[batch] } satisfies RecordWorkerRequest);
-    };
-    for (let k = 0; k < count; k++) {
-      const w = new Worker(url, { workerData: data });
-      workers.push(w);
-      w.on("message", (reply: RecordWorkerReply) => {
-        if (reply.kind === "failed") {
-          fail(new Error(`build worker: ${reply.message}`));
-          return;
-        }
-        onDone(reply.entries, reply.pages);
-        if (++done === batches.length) {
-          for (const x of workers) x.postMessage({ kind: "end" } satisfies RecordWorkerRequest);
-          resolve();
-        } else feed(w);
-      });
-      w.on("error", (e) => fail(e instanceof Error ? e : new Error(String(e))));
-      w.on("exit", (code) => {
-        if (done < batches.length) fail(new Error(`build worker stopped (exit code ${code}) before its records were audited`));
-      });
-    }
-    for (let i = 0; i < IN_FLIGHT; i++) for (const w of workers) feed(w);
+  return runBatches<FileToAudit, RecordWorkerReply>({
+    url,
+    count,
+    workerData: data,
+    items: files,
+    batchSize: BATCH,
+    inFlight: IN_FLIGHT,
+    request: (batch, items) => ({ kind: "files", batch, files: items }) satisfies RecordWorkerRequest,
+    onReply: (reply) => onDone(reply.entries, reply.pages),
+    name: "build worker",
+    unfinished: "its records were audited",
   });
 }
 

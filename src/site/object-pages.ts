@@ -1,7 +1,7 @@
 import { existsSync } from "node:fs";
 import { availableParallelism } from "node:os";
 import { fileURLToPath } from "node:url";
-import { Worker } from "node:worker_threads";
+import { runBatches } from "../workers/batch-pool.js";
 import type { ObjectAudit } from "../audit/types.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import type { Problem } from "../problem.js";
@@ -58,44 +58,19 @@ const BATCH = 32;
 const IN_FLIGHT = 2;
 
 function renderOnWorkers(url: URL, count: number, data: PageWorkerData, inputs: readonly PageInput[], onWritten: (p: WrittenPage) => void): Promise<void> {
-  const batches: PageInput[][] = [];
-  for (let i = 0; i < inputs.length; i += BATCH) batches.push(inputs.slice(i, i + BATCH));
-  let next = 0;
-  let done = 0;
-  return new Promise<void>((resolve, reject) => {
-    const workers: Worker[] = [];
-    let failed = false;
-    const fail = (error: Error): void => {
-      if (failed) return;
-      failed = true;
-      for (const w of workers) void w.terminate();
-      reject(error);
-    };
-    const feed = (w: Worker): void => {
-      if (failed || next >= batches.length) return;
-      const batch = next++;
-      w.postMessage({ kind: "pages", batch, pages: batches[batch] } satisfies PageWorkerRequest);
-    };
-    for (let k = 0; k < count; k++) {
-      const w = new Worker(url, { workerData: data });
-      workers.push(w);
-      w.on("message", (reply: PageWorkerReply) => {
-        if (reply.kind === "failed") {
-          fail(new Error(`object page worker: ${reply.message}`));
-          return;
-        }
-        for (const p of reply.pages) onWritten(p);
-        if (++done === batches.length) {
-          for (const x of workers) x.postMessage({ kind: "end" } satisfies PageWorkerRequest);
-          resolve();
-        } else feed(w);
-      });
-      w.on("error", (e) => fail(e instanceof Error ? e : new Error(String(e))));
-      w.on("exit", (code) => {
-        if (done < batches.length) fail(new Error(`object page worker stopped (exit code ${code}) before its pages were written`));
-      });
-    }
-    for (let i = 0; i < IN_FLIGHT; i++) for (const w of workers) feed(w);
+  return runBatches<PageInput, PageWorkerReply>({
+    url,
+    count,
+    workerData: data,
+    items: inputs,
+    batchSize: BATCH,
+    inFlight: IN_FLIGHT,
+    request: (batch, pages) => ({ kind: "pages", batch, pages }) satisfies PageWorkerRequest,
+    onReply: (reply) => {
+      for (const p of reply.pages) onWritten(p);
+    },
+    name: "object page worker",
+    unfinished: "its pages were written",
   });
 }
 
