@@ -2,6 +2,7 @@ import path from "node:path";
 import { exitCodeFor } from "./audit/audit-records.js";
 import { runAudit } from "./audit/run.js";
 import { textReport } from "./report/text-report.js";
+import { reportJsonChunks } from "./report/json-report.js";
 import { VERSION } from "./version.js";
 import { DEFAULT_CACHE_DIR } from "./cache/cache-dir.js";
 
@@ -70,11 +71,29 @@ function numberFlag(flags: Parsed["flags"], name: string): number | undefined | 
 export interface Io {
   readonly out: (text: string) => void;
   readonly err: (text: string) => void;
+  /** Writes a long output piece by piece, waiting for the reader (stdout) so it is never held whole. */
+  readonly outChunks?: (chunks: Iterable<string>) => Promise<void>;
+}
+
+function writeEach(io: Io): (chunks: Iterable<string>) => Promise<void> {
+  return async (chunks) => {
+    for (const c of chunks) io.out(c);
+  };
 }
 
 const STD_IO: Io = {
   out: (t) => process.stdout.write(t),
   err: (t) => process.stderr.write(t),
+  outChunks: async (chunks) => {
+    let buffer = "";
+    for (const c of chunks) {
+      buffer += c;
+      if (buffer.length < 1 << 16) continue;
+      if (!process.stdout.write(buffer)) await new Promise<void>((resolve) => process.stdout.once("drain", () => resolve()));
+      buffer = "";
+    }
+    if (buffer) process.stdout.write(buffer);
+  },
 };
 
 export async function main(argv: readonly string[], io: Io = STD_IO): Promise<number> {
@@ -135,7 +154,8 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
       }
     }
     const report = await runAudit(recordsDir, options);
-    io.out(flags.has("--json") ? JSON.stringify(report, null, 2) + "\n" : textReport(report));
+    if (flags.has("--json")) await (io.outChunks ?? writeEach(io))(reportJsonChunks(report));
+    else io.out(textReport(report));
     return exitCodeFor(report);
   }
 
