@@ -3,6 +3,7 @@ import { relativeUncertainty } from "../constants/constant.js";
 import type { MethodDefinition, MethodResult } from "../methods/method.js";
 import { latexNumber } from "../quantity/format.js";
 import type { Quantity } from "../quantity/quantity.js";
+import { computeSI } from "../quantity/compute-si.js";
 import type { MeasurementRecord, SlotInput } from "../records/types.js";
 import { findUnit } from "../units/catalog.js";
 import { describeDimension, sameDimension, GRAVITATIONAL_PARAMETER, MASS, type Dimension } from "../units/dimension.js";
@@ -52,26 +53,6 @@ const GM_UNIT = { text: "m3 s-2", latex: "\\mathrm{m^{3}\\,s^{-2}}" };
 
 function isMass(d: Dimension): boolean {
   return sameDimension(d, MASS);
-}
-
-/** SI value handed to `compute`: GM for masses (exact for nominal solar and planetary units), else value × scale. */
-function slotValue(input: SlotInput): { value: number; plus: number; minus: number } {
-  const q = input.quantity;
-  if (isGM(q.unit.dimension)) {
-    const s = q.unit.scale;
-    return { value: q.value * s, plus: q.plus * s, minus: q.minus * s };
-  }
-  if (isMass(q.unit.dimension)) {
-    const gm = q.unit.gm;
-    if (gm === undefined) throw new Error(`mass unit ${q.unit.id} has no GM`);
-    const rel = q.unit.gmRelativeUncertainty ?? 0;
-    const value = q.value * gm;
-    // a kilogram mass turned into GM inherits G's relative uncertainty
-    const widen = (s: number) => Math.hypot(s * gm, rel * value);
-    return { value, plus: q.kind === "exact" && rel === 0 ? 0 : widen(q.plus), minus: q.kind === "exact" && rel === 0 ? 0 : widen(q.minus) };
-  }
-  const s = q.unit.scale;
-  return { value: q.value * s, plus: q.plus * s, minus: q.minus * s };
 }
 
 function inputAudit(input: SlotInput): InputAudit {
@@ -150,7 +131,7 @@ export function measurementSeed(objectId: string, key: string): number {
 /** The Monte Carlo of one measurement, or undefined when no draws are asked for. */
 export function monteCarloJob(objectId: string, method: MethodDefinition, m: MeasurementRecord, options: AuditOptions): MonteCarloJob | undefined {
   if (!(options.draws > 0)) return undefined;
-  const inputs = Object.keys(m.inputs).sort().map((slot) => ({ slot, ...slotValue(m.inputs[slot]) }));
+  const inputs = Object.keys(m.inputs).sort().map((slot) => ({ slot, ...computeSI(m.inputs[slot].quantity) }));
   return { method: method.id, inputs, draws: options.draws, seed: measurementSeed(objectId, m.key) };
 }
 
@@ -209,7 +190,7 @@ export function auditWithoutDraws(objectId: string, method: MethodDefinition, m:
   const si: Record<string, number> = {};
   const sides: Record<string, SideUncertainty> = {};
   for (const slot of slots) {
-    const v = slotValue(m.inputs[slot]);
+    const v = computeSI(m.inputs[slot].quantity);
     si[slot] = v.value;
     sides[slot] = { plus: v.plus, minus: v.minus };
   }

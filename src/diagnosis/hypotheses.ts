@@ -218,38 +218,41 @@ function axisSlot(ctx: DiagnosisContext): string | undefined {
   return ["semimajor_axis", "angular_semimajor_axis"].find((s) => hasSlot(ctx, s));
 }
 
-const usedBarycentric: Hypothesis = {
-  id: "barycentric-as-relative",
-  title: "Barycentric a₁ used as the relative semi-major axis",
-  description:
-    "The relative orbit is larger than one star's orbit about the barycentre: a = a₁(1+q)/q. The published mass may have " +
+/** A slip that rescales the semi-major axis by a factor of the mass ratio q. */
+function axisScaling(id: string, title: string, description: string, factor: (q: number) => number, phrase: (q: string) => string): Hypothesis {
+  return {
+    id,
+    title,
+    description,
+    methods: [RELATIVE, ASTROMETRIC],
+    applies: (ctx) => axisSlot(ctx) !== undefined && massRatio(ctx) !== undefined,
+    transform: (ctx): Change | undefined => {
+      const slot = axisSlot(ctx);
+      const q = massRatio(ctx);
+      if (!slot || q === undefined) return undefined;
+      return { inputs: [scale(slot, factor(q))], phrase: phrase(short(q)) };
+    },
+  };
+}
+
+const usedBarycentric = axisScaling(
+  "barycentric-as-relative",
+  "Barycentric a₁ used as the relative semi-major axis",
+  "The relative orbit is larger than one star's orbit about the barycentre: a = a₁(1+q)/q. The published mass may have " +
     "been computed with a₁ = a q/(1+q) where the relative a belongs, or the axis typed is the relative one where the " +
     "method needs a₁.",
-  methods: [RELATIVE, ASTROMETRIC],
-  applies: (ctx) => axisSlot(ctx) !== undefined && massRatio(ctx) !== undefined,
-  transform: (ctx): Change | undefined => {
-    const slot = axisSlot(ctx);
-    const q = massRatio(ctx);
-    if (!slot || q === undefined) return undefined;
-    return { inputs: [scale(slot, q / (1 + q))], phrase: `with a₁ = a q/(1+q) (q = ${short(q)}) in place of the relative a` };
-  },
-};
+  (q) => q / (1 + q),
+  (q) => `with a₁ = a q/(1+q) (q = ${q}) in place of the relative a`,
+);
 
-const usedRelative: Hypothesis = {
-  id: "relative-as-barycentric",
-  title: "Relative semi-major axis used as the barycentric a₁",
-  description:
-    "The reverse slip: the published mass may have been computed with the relative a = a₁(1+q)/q where one star's " +
+const usedRelative = axisScaling(
+  "relative-as-barycentric",
+  "Relative semi-major axis used as the barycentric a₁",
+  "The reverse slip: the published mass may have been computed with the relative a = a₁(1+q)/q where one star's " +
     "barycentric a₁ belongs, or the axis typed is a₁ where the method needs the relative a.",
-  methods: [RELATIVE, ASTROMETRIC],
-  applies: (ctx) => axisSlot(ctx) !== undefined && massRatio(ctx) !== undefined,
-  transform: (ctx): Change | undefined => {
-    const slot = axisSlot(ctx);
-    const q = massRatio(ctx);
-    if (!slot || q === undefined) return undefined;
-    return { inputs: [scale(slot, (1 + q) / q)], phrase: `with the relative a = a₁(1+q)/q (q = ${short(q)}) in place of a₁` };
-  },
-};
+  (q) => (1 + q) / q,
+  (q) => `with the relative a = a₁(1+q)/q (q = ${q}) in place of a₁`,
+);
 
 // ---------------------------------------------------------------------------
 // Inclination: sin³i
@@ -488,11 +491,11 @@ const meanDistance: Hypothesis = {
     "The time-averaged separation of an eccentric orbit is a(1 + e²/2); used in Kepler's third law in place of a, " +
     "it inflates the mass by (1 + e²/2)³.",
   methods: [RELATIVE, ASTROMETRIC],
-  applies: (ctx) =>
-    (siOf(ctx, "eccentricity") ?? 0) > 0 && (hasSlot(ctx, "semimajor_axis") || hasSlot(ctx, "angular_semimajor_axis")),
+  applies: (ctx) => (siOf(ctx, "eccentricity") ?? 0) > 0 && axisSlot(ctx) !== undefined,
   transform: (ctx) => {
     const e = siOf(ctx, "eccentricity") ?? 0;
-    const slot = hasSlot(ctx, "semimajor_axis") ? "semimajor_axis" : "angular_semimajor_axis";
+    const slot = axisSlot(ctx);
+    if (!slot) return undefined;
     return { inputs: [scale(slot, 1 + (e * e) / 2)], phrase: `with the mean distance a(1 + e²/2) = ${short(1 + (e * e) / 2)} a in place of a` };
   },
 };

@@ -4,6 +4,7 @@ import { getMethod, METHOD_IDS } from "../methods/index.js";
 import { parseQuantity } from "../quantity/parse.js";
 import type { Quantity } from "../quantity/quantity.js";
 import { checkDimension } from "../units/parse.js";
+import { computeSI } from "../quantity/compute-si.js";
 import {
   ANGLE,
   describeDimension,
@@ -52,12 +53,7 @@ function fitsDimension(expected: Dimension, found: Dimension): boolean {
 
 /** SI value of a slot as a method sees it: GM (m³ s⁻²) for masses, value × scale otherwise. */
 export function slotSI(q: Quantity): number {
-  if (sameDimension(q.unit.dimension, GRAVITATIONAL_PARAMETER)) return q.value * q.unit.scale;
-  if (sameDimension(q.unit.dimension, MASS)) {
-    if (q.unit.gm === undefined) throw new Error(`mass unit ${q.unit.id} has no GM in the unit catalogue`);
-    return q.value * q.unit.gm;
-  }
-  return q.value * q.unit.scale;
+  return computeSI(q).value;
 }
 
 /** Adds issues from a parser or a method, each located at `path` plus the issue's own path when the file has it. */

@@ -173,22 +173,7 @@ export function comparisonChart(result: ResultAudit, comparison: ComparisonAudit
     parts.push(marker(s.shape, xOf(s.value), y, "chart-marker"));
     parts.push(`</g>`);
   });
-  // axis with a few round ticks
-  parts.push(`<line class="chart-axis" x1="${labelWidth}" y1="${axisY}" x2="${labelWidth + plotWidth}" y2="${axisY}"></line>`);
-  const step = niceStep(hi - lo);
-  if (Number.isFinite(step) && step > 0) {
-    for (let t = Math.ceil(lo / step) * step, k = 0; t <= hi && k < 12; t += step, k++) {
-      const x = xOf(t);
-      const label = tickLabel(Math.abs(t) < step * 1e-9 ? 0 : t, step, Math.max(Math.abs(lo), Math.abs(hi)));
-      parts.push(
-        `<line class="chart-axis" x1="${n(x)}" y1="${axisY}" x2="${n(x)}" y2="${axisY + 4}"></line>`,
-        `<text class="chart-tick" x="${n(x)}" y="${axisY + 16}" text-anchor="middle">${escapeHtml(label)}</text>`,
-      );
-    }
-  }
-  if (unitSymbol) {
-    parts.push(`<text class="chart-tick" x="${labelWidth + plotWidth}" y="${axisY + 28}" text-anchor="end">${escapeHtml(unitSymbol)}</text>`);
-  }
+  parts.push(...valueAxis({ lo, hi, xOf, labelWidth, plotWidth, axisY, unitSymbol }));
   parts.push(`</svg>`);
   return parts.join("");
 }
@@ -283,7 +268,23 @@ export function forestChart(rows: readonly ForestRow[], band: ForestBand | null,
     parts.push(`<circle class="${r.used ? "chart-marker" : "chart-marker-hollow"}" cx="${n(xOf(r.value))}" cy="${n(y)}" r="4.5"></circle>`);
     parts.push(`</g>`);
   });
-  parts.push(`<line class="chart-axis" x1="${labelWidth}" y1="${axisY}" x2="${labelWidth + plotWidth}" y2="${axisY}"></line>`);
+  parts.push(...valueAxis({ lo, hi, xOf, labelWidth, plotWidth, axisY, unitSymbol }));
+  parts.push(`</svg>`);
+  return parts.join("");
+}
+
+/** The horizontal value axis shared by the comparison and forest charts: a line, a few round ticks, the unit. */
+function valueAxis(a: {
+  lo: number;
+  hi: number;
+  xOf: (v: number) => number;
+  labelWidth: number;
+  plotWidth: number;
+  axisY: number;
+  unitSymbol?: string;
+}): string[] {
+  const { lo, hi, xOf, labelWidth, plotWidth, axisY, unitSymbol } = a;
+  const parts = [`<line class="chart-axis" x1="${labelWidth}" y1="${axisY}" x2="${labelWidth + plotWidth}" y2="${axisY}"></line>`];
   const step = niceStep(hi - lo);
   if (Number.isFinite(step) && step > 0) {
     for (let t = Math.ceil(lo / step) * step, k = 0; t <= hi && k < 12; t += step, k++) {
@@ -298,6 +299,5 @@ export function forestChart(rows: readonly ForestRow[], band: ForestBand | null,
   if (unitSymbol) {
     parts.push(`<text class="chart-tick" x="${labelWidth + plotWidth}" y="${axisY + 28}" text-anchor="end">${escapeHtml(unitSymbol)}</text>`);
   }
-  parts.push(`</svg>`);
-  return parts.join("");
+  return parts;
 }

@@ -3,14 +3,14 @@
  *
  * Exactly defined constants are compared with toBe. Measured ones are
  * compared with the published decimal to 1 part in 10⁹: one unit in the last
- * published digit of G is 1.5 ppm, so any transcription slip fails, while the
+ * published digit of G is 1.5 ppm, so a single wrong digit fails, while the
  * binary rounding of the decimal (~10⁻¹⁶) never does.
  */
 import { describe, expect, it } from "vitest";
 import * as math from "mathjs";
 import { ALL_CONSTANTS, DEFAULT_SET, codata2014, codata2018, defineConstant, derived, iau2012, iau2015, relativeUncertainty } from "../../src/constants/index.js";
 
-const TRANSCRIPTION = 1e-9;
+const DIGIT_TOLERANCE = 1e-9;
 
 function relativeDifference(a: number, b: number): number {
   return Math.abs(a - b) / Math.abs(b);
@@ -20,8 +20,8 @@ function relativeDifference(a: number, b: number): number {
 // table of recommended values: G = 6.674 30(15) × 10⁻¹¹ m³ kg⁻¹ s⁻²; c = 299 792 458 m s⁻¹ exact.
 describe("CODATA 2018 (Tiesinga et al. 2021, Rev. Mod. Phys. 93, 025010)", () => {
   it("G = 6.674 30(15) × 10⁻¹¹ m³ kg⁻¹ s⁻², measured", () => {
-    expect(relativeDifference(codata2018.G.value, 6.6743e-11)).toBeLessThan(TRANSCRIPTION);
-    expect(relativeDifference(codata2018.G.uncertainty, 0.00015e-11)).toBeLessThan(TRANSCRIPTION);
+    expect(relativeDifference(codata2018.G.value, 6.6743e-11)).toBeLessThan(DIGIT_TOLERANCE);
+    expect(relativeDifference(codata2018.G.uncertainty, 0.00015e-11)).toBeLessThan(DIGIT_TOLERANCE);
     expect(codata2018.G.exact).toBe(false);
     expect(codata2018.G.unit).toBe("m3 kg-1 s-2");
   });
@@ -38,9 +38,9 @@ describe("CODATA 2018 (Tiesinga et al. 2021, Rev. Mod. Phys. 93, 025010)", () =>
   });
 
   // mathjs 15.2.0 (general-purpose maths library from the npm registry) ships
-  // CODATA 2018 physical constants: an independent transcription of the same table.
+  // CODATA 2018 physical constants: an independent copy of the same values.
   it("agrees with mathjs's gravitationConstant and speedOfLight", () => {
-    expect(relativeDifference(codata2018.G.value, math.gravitationConstant.toNumber("m^3 kg^-1 s^-2"))).toBeLessThan(TRANSCRIPTION);
+    expect(relativeDifference(codata2018.G.value, math.gravitationConstant.toNumber("m^3 kg^-1 s^-2"))).toBeLessThan(DIGIT_TOLERANCE);
     expect(codata2018.c.value).toBe(math.speedOfLight.toNumber("m/s"));
   });
 });
@@ -49,8 +49,8 @@ describe("CODATA 2018 (Tiesinga et al. 2021, Rev. Mod. Phys. 93, 025010)", () =>
 // G = 6.674 08(31) × 10⁻¹¹ m³ kg⁻¹ s⁻².
 describe("CODATA 2014 (Mohr et al. 2016, Rev. Mod. Phys. 88, 035009)", () => {
   it("G = 6.674 08(31) × 10⁻¹¹ m³ kg⁻¹ s⁻², measured, 46 ppm", () => {
-    expect(relativeDifference(codata2014.G.value, 6.67408e-11)).toBeLessThan(TRANSCRIPTION);
-    expect(relativeDifference(codata2014.G.uncertainty, 0.00031e-11)).toBeLessThan(TRANSCRIPTION);
+    expect(relativeDifference(codata2014.G.value, 6.67408e-11)).toBeLessThan(DIGIT_TOLERANCE);
+    expect(relativeDifference(codata2014.G.uncertainty, 0.00031e-11)).toBeLessThan(DIGIT_TOLERANCE);
     expect(codata2014.G.exact).toBe(false);
     expect(relativeUncertainty(codata2014.G)).toBeCloseTo(4.645e-5, 8);
   });
