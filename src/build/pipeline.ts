@@ -20,6 +20,7 @@ import { createPageRenderer, type PageSite } from "../site/page-render.js";
 import { objectPath } from "../site/table.js";
 import { VERSION } from "../version.js";
 import {
+  attachFragments,
   auditEntriesParallel,
   fileProblems,
   parseFiles,
@@ -255,6 +256,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     if (pages) for (const p of writeEntryPages(entries, createPageRenderer(pages.includesDir, pages.site), pages.outDir)) written.set(p.id, p);
   }
   const entries = slots as RecordEntry[];
+  if (pages) attachFragments(entries);
 
   const { report, kept, contested } = reportFromEntries(files, entries, options.audit);
 

@@ -5,6 +5,7 @@ import { loadRecordBytes } from "../records/load.js";
 import type { Location, ObjectRecord } from "../records/types.js";
 import type { PageRenderer } from "../site/page-render.js";
 import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
+import { adoptFragments, fragmentsOf, type ObjectFragments } from "../site/fragments.js";
 
 /** What the cache keeps of one record file. */
 export interface RecordEntry {
@@ -20,6 +21,8 @@ export interface RecordEntry {
   record?: ObjectRecord;
   /** The audit of the record; absent until it has been audited. */
   audit?: { readonly object?: ObjectAudit; readonly problems: readonly Problem[] };
+  /** What its object contributes to the shared pages and downloads, made where it was audited for a site build. */
+  fragments?: ObjectFragments;
 }
 
 /** A record file read and keyed, to be parsed and audited. */
@@ -100,4 +103,17 @@ export function writeEntryPages(entries: readonly RecordEntry[], render: PageRen
     out.push({ ...renderAndWrite(render, { obj, problems: fileProblems(e) }, outDir), entryKey: e.key });
   }
   return out;
+}
+
+/**
+ * Gives every audited entry with an object its fragments: those it carries
+ * (from a worker or the cache) are taken for its object, the others made now.
+ */
+export function attachFragments(entries: readonly RecordEntry[]): void {
+  for (const e of entries) {
+    const obj = e.audit?.object;
+    if (!obj) continue;
+    if (e.fragments) adoptFragments(obj, e.fragments);
+    else e.fragments = fragmentsOf(obj);
+  }
 }

@@ -1,7 +1,7 @@
 import { parentPort, workerData } from "node:worker_threads";
 import type { RunOptions } from "../audit/audit-records.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
-import { auditEntries, parseFiles, writeEntryPages, type FileToAudit, type PageWritten, type RecordEntry } from "./record-work.js";
+import { attachFragments, auditEntries, parseFiles, writeEntryPages, type FileToAudit, type PageWritten, type RecordEntry } from "./record-work.js";
 
 /**
  * A build worker: parses and audits the record files it is sent (Monte Carlo
@@ -36,6 +36,7 @@ if (port) {
       if (data.pages) {
         render ??= createPageRenderer(data.pages.includesDir, data.pages.site);
         pages = writeEntryPages(entries, render, data.pages.outDir);
+        attachFragments(entries);
       }
       port.postMessage({ kind: "done", batch: msg.batch, entries, pages } satisfies RecordWorkerReply);
     } catch (e) {

@@ -1,5 +1,5 @@
 import type { AuditReport, MeasurementAudit, ObjectAudit } from "../audit/types.js";
-import type { Combined, CombinedValues } from "../combine/types.js";
+import type { CombinedValues } from "../combine/types.js";
 import { findUnit } from "../units/catalog.js";
 
 /**
@@ -104,38 +104,45 @@ function uniqueSorted(values: Iterable<string | undefined>): string[] {
   return [...new Set([...values].filter((v): v is string => typeof v === "string" && v.trim() !== ""))].sort(compareText);
 }
 
-interface Row {
-  readonly object: ObjectAudit;
-  readonly combined: Combined;
+/**
+ * One object's row in one result's table, with the cells that do not depend
+ * on the table already written out: the table's unit (the one most rows
+ * display) is known only once every row is in, so the three values stay
+ * numbers, in SI, until then.
+ */
+export interface VotableRow {
+  readonly result: string;
+  readonly objectId: string;
+  readonly displayUnit: string;
+  readonly unitSI: string;
+  /** The TD elements before the values: object id and name. */
+  readonly head: string;
+  readonly valueSI: number;
+  readonly plusSI: number;
+  readonly minusSI: number;
+  /** The TD elements after the values. */
+  readonly tail: string;
 }
 
 /** The unit most rows display; ties go to the first row by object id. */
-function tableUnit(rows: readonly Row[]): { id: string; scale: number } | undefined {
+function tableUnit(rows: readonly VotableRow[]): { id: string; scale: number } | undefined {
   const counts = new Map<string, number>();
   for (const r of rows) {
-    const id = r.combined.estimate!.display_unit;
+    const id = r.displayUnit;
     counts.set(id, (counts.get(id) ?? 0) + 1);
   }
   let best: string | undefined;
   for (const r of rows) {
-    const id = r.combined.estimate!.display_unit;
+    const id = r.displayUnit;
     if (best === undefined || counts.get(id)! > counts.get(best)!) best = id;
   }
   const unit = best !== undefined ? findUnit(best) : undefined;
   return unit ? { id: unit.id, scale: unit.scale } : undefined;
 }
 
-function tableXml(result: string, rows: readonly Row[], indent: string): string {
-  const unit = tableUnit(rows);
-  const scale = unit?.scale ?? 1;
-  const unitSI = rows[0].combined.estimate!.unit_si;
-  const isMass = unitSI === "kg";
-  const vo = unit ? voUnit(unit.id) : undefined;
-  const inUnit = unit ? (unit.id === "1" ? "as a plain number" : `in ${vo ?? `${unit.id} (no VOUnit form)`}`) : `in SI (${unitSI})`;
-  const valueUnit = unit && unit.id !== "1" ? vo : undefined;
-  const name = result.replace(/_/g, " ");
-
-  const columns: Column[] = [
+/** The columns of one result's table; the unit and UCD of the value columns depend on the result and the table's unit. */
+function tableColumns(name: string, inUnit: string, valueUnit: string | undefined, isMass: boolean): Column[] {
+  return [
     { name: "object_id", datatype: "char", ucd: "meta.id;meta.main", description: "Object identifier in this table." },
     { name: "object_name", datatype: "char", ucd: "meta.id", description: "Object name as recorded." },
     { name: "value", datatype: "double", unit: valueUnit, ucd: isMass ? "phys.mass" : undefined, description: `Combined ${name}, ${inUnit}.` },
@@ -166,32 +173,71 @@ function tableXml(result: string, rows: readonly Row[], indent: string): string 
     { name: "dois", datatype: "char", ucd: "meta.ref.doi", description: "DOIs of the measurements combined, separated by semicolons." },
     { name: "not_combined", datatype: "char", description: "Measurements with this result that were not combined, with the reason, separated by semicolons." },
   ];
+}
 
-  const trs = rows.map(({ object, combined }) => {
-    const e = combined.estimate!;
+/** Datatypes of the columns, by position (the same in every table). */
+const DATATYPES: readonly Datatype[] = tableColumns("", "", undefined, false).map((c) => c.datatype);
+const VALUE_COLUMN = 2;
+const TAIL_COLUMN = 5;
+
+/** The rows of one object, one per result with a combined value. */
+export function votableRows(object: ObjectAudit, combined: CombinedValues): VotableRow[] {
+  const out: VotableRow[] = [];
+  for (const [result, c] of Object.entries(combined)) {
+    const e = c.estimate;
+    if (!e) continue;
     const byKey = new Map<string, MeasurementAudit>(object.measurements.map((m) => [m.key, m] as const));
-    const used = combined.inputs.map((i) => byKey.get(i.key)).filter((m): m is MeasurementAudit => m !== undefined);
-    const cells: Cell[] = [
-      object.id,
-      object.name,
-      e.value_si / scale,
-      e.sigma_plus_si / scale,
-      e.sigma_minus_si / scale,
-      combined.count,
-      combined.chi2,
-      combined.dof,
-      combined.birge_ratio,
-      combined.scaled,
-      combined.procedure,
-      object.status,
-      combined.inputs.map((i) => i.key).join("; "),
-      uniqueSorted(used.map((m) => m.reference.cite)).join("; "),
-      uniqueSorted(used.map((m) => m.reference.bibcode)).join("; "),
-      uniqueSorted(used.map((m) => m.reference.doi)).join("; "),
-      combined.excluded.map((x) => `${x.key}: ${x.reason}`).join("; "),
-    ];
-    const tds = cells.map((c, i) => `<TD>${cellText(c, columns[i].datatype)}</TD>`).join("");
-    return `${indent}      <TR>${tds}</TR>`;
+    const used = c.inputs.map((i) => byKey.get(i.key)).filter((m): m is MeasurementAudit => m !== undefined);
+    const td = (cells: readonly Cell[], first: number): string =>
+      cells.map((cell, i) => `<TD>${cellText(cell, DATATYPES[first + i])}</TD>`).join("");
+    out.push({
+      result,
+      objectId: object.id,
+      displayUnit: e.display_unit,
+      unitSI: e.unit_si,
+      head: td([object.id, object.name], 0),
+      valueSI: e.value_si,
+      plusSI: e.sigma_plus_si,
+      minusSI: e.sigma_minus_si,
+      tail: td(
+        [
+          c.count,
+          c.chi2,
+          c.dof,
+          c.birge_ratio,
+          c.scaled,
+          c.procedure,
+          object.status,
+          c.inputs.map((i) => i.key).join("; "),
+          uniqueSorted(used.map((m) => m.reference.cite)).join("; "),
+          uniqueSorted(used.map((m) => m.reference.bibcode)).join("; "),
+          uniqueSorted(used.map((m) => m.reference.doi)).join("; "),
+          c.excluded.map((x) => `${x.key}: ${x.reason}`).join("; "),
+        ],
+        TAIL_COLUMN,
+      ),
+    });
+  }
+  return out;
+}
+
+function tableXml(result: string, rows: readonly VotableRow[], indent: string): string {
+  const unit = tableUnit(rows);
+  const scale = unit?.scale ?? 1;
+  const unitSI = rows[0].unitSI;
+  const isMass = unitSI === "kg";
+  const vo = unit ? voUnit(unit.id) : undefined;
+  const inUnit = unit ? (unit.id === "1" ? "as a plain number" : `in ${vo ?? `${unit.id} (no VOUnit form)`}`) : `in SI (${unitSI})`;
+  const valueUnit = unit && unit.id !== "1" ? vo : undefined;
+  const name = result.replace(/_/g, " ");
+
+  const columns = tableColumns(name, inUnit, valueUnit, isMass);
+
+  const trs = rows.map((r) => {
+    const values = [r.valueSI / scale, r.plusSI / scale, r.minusSI / scale]
+      .map((v, i) => `<TD>${cellText(v, DATATYPES[VALUE_COLUMN + i])}</TD>`)
+      .join("");
+    return `${indent}      <TR>${r.head}${values}${r.tail}</TR>`;
   });
 
   const description =
@@ -216,19 +262,20 @@ function tableXml(result: string, rows: readonly Row[], indent: string): string 
  * no row in that result's table.
  */
 export function referenceTableVOTable(report: AuditReport, combined: Readonly<Record<string, CombinedValues>>): string {
-  const objects = [...report.objects].sort((a, b) => compareText(a.id, b.id));
-  const results = new Set<string>();
-  for (const o of objects) for (const [name, c] of Object.entries(combined[o.id] ?? {})) if (c.estimate) results.add(name);
+  return referenceTableFromRows(report, report.objects.map((o) => votableRows(o, combined[o.id] ?? {})));
+}
 
-  const tables: string[] = [];
-  for (const result of [...results].sort(compareText)) {
-    const rows: Row[] = [];
-    for (const o of objects) {
-      const c = combined[o.id]?.[result];
-      if (c?.estimate) rows.push({ object: o, combined: c });
-    }
-    if (rows.length > 0) tables.push(tableXml(result, rows, "    "));
+/** The same document from each object's rows (votableRows), in any order of objects. */
+export function referenceTableFromRows(report: Pick<AuditReport, "tool" | "settings">, perObject: ReadonlyArray<readonly VotableRow[]>): string {
+  const all = perObject.flat().sort((a, b) => compareText(a.objectId, b.objectId));
+  const byResult = new Map<string, VotableRow[]>();
+  for (const r of all) {
+    const list = byResult.get(r.result);
+    if (list) list.push(r);
+    else byResult.set(r.result, [r]);
   }
+  const tables: string[] = [];
+  for (const result of [...byResult.keys()].sort(compareText)) tables.push(tableXml(result, byResult.get(result)!, "    "));
 
   const t = report.settings.thresholds;
   const info = (name: string, value: string) => `  <INFO${attributes([["name", name], ["value", value]])}/>`;

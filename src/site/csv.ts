@@ -13,8 +13,16 @@ export function csvField(value: CsvValue): string {
   return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
 }
 
+/** One row's line, without the line end. */
+export function csvLine<T>(columns: ReadonlyArray<keyof T & string>, row: T): string {
+  return columns.map((c) => csvField(row[c] as CsvValue)).join(",");
+}
+
+/** The file from its lines: the header, then the rows' lines (csvLine). */
+export function csvFromLines(columns: readonly string[], lines: readonly string[]): string {
+  return [columns.map((c) => csvField(c)).join(","), ...lines].join("\r\n") + "\r\n";
+}
+
 export function toCsv<T>(columns: ReadonlyArray<keyof T & string>, rows: readonly T[]): string {
-  const lines = [columns.map((c) => csvField(c)).join(",")];
-  for (const row of rows) lines.push(columns.map((c) => csvField(row[c] as CsvValue)).join(","));
-  return lines.join("\r\n") + "\r\n";
+  return csvFromLines(columns, rows.map((row) => csvLine(columns, row)));
 }

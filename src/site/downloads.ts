@@ -1,16 +1,21 @@
 import type { AuditReport } from "../audit/types.js";
-import { bibtexFile } from "./bibtex.js";
-import { toCsv } from "./csv.js";
-import { TABLE_COLUMNS, tableRows } from "./table.js";
+import { bibtexFromParts } from "./bibtex.js";
+import { csvFromLines } from "./csv.js";
+import { TABLE_COLUMNS } from "./table.js";
 import type { CombinedValues } from "../combine/types.js";
 import { combineObject } from "../combine/combine-object.js";
-import { referenceTableVOTable } from "../export/votable.js";
+import { referenceTableFromRows } from "../export/votable.js";
+import { fragmentsOf } from "./fragments.js";
 
 /** The report's combined values keyed by object id (combined afresh for an object that carries none). */
 export function combinedIndex(report: AuditReport): Record<string, CombinedValues> {
   const out: Record<string, CombinedValues> = {};
   for (const o of report.objects) out[o.id] = o.combined ?? combineObject(o);
   return out;
+}
+
+function present<T>(list: ReadonlyArray<T | null>): T[] {
+  return list.filter((x): x is T => x !== null);
 }
 
 /** The downloadable files, their site paths and how each is made from the report. */
@@ -28,22 +33,29 @@ export const DOWNLOADS: readonly Download[] = [
     path: "downloads/reference-table.csv",
     title: "Reference table",
     format: "CSV (RFC 4180)",
-    render: (report) => toCsv(TABLE_COLUMNS, tableRows(report)),
+    // toCsv(TABLE_COLUMNS, tableRows(report)), line by line
+    render: (report) => csvFromLines(TABLE_COLUMNS, present(report.objects.map((o) => fragmentsOf(o).csv))),
   },
   {
     key: "table_json",
     path: "downloads/reference-table.json",
     title: "Reference table",
     format: "JSON",
-    render: (report) =>
-      JSON.stringify({ tool: report.tool, settings: report.settings, columns: TABLE_COLUMNS, rows: tableRows(report) }, null, 1) + "\n",
+    // JSON.stringify({ tool, settings, columns, rows: tableRows(report) }, null, 1), row by row
+    render: (report) => {
+      const rows = present(report.objects.map((o) => fragmentsOf(o).json));
+      const empty = JSON.stringify({ tool: report.tool, settings: report.settings, columns: TABLE_COLUMNS, rows: [] }, null, 1);
+      const tail = '"rows": []\n}';
+      if (rows.length === 0) return empty + "\n";
+      return empty.slice(0, -tail.length) + '"rows": [\n' + rows.join(",\n") + "\n ]\n}\n";
+    },
   },
   {
     key: "table_votable",
     path: "downloads/reference-table.vot",
     title: "Reference values combined per object and result",
     format: "VOTable 1.4",
-    render: (report) => referenceTableVOTable(report, combinedIndex(report)),
+    render: (report) => referenceTableFromRows(report, report.objects.map((o) => fragmentsOf(o).votable)),
   },
   {
     key: "audit_json",
@@ -57,6 +69,7 @@ export const DOWNLOADS: readonly Download[] = [
     path: "downloads/references.bib",
     title: "References of every measurement",
     format: "BibTeX",
-    render: (report) => bibtexFile(report),
+    // bibtexFile(report), object by object
+    render: (report) => bibtexFromParts(report.tool.version, report.objects.map((o) => fragmentsOf(o).bib)),
   },
 ];

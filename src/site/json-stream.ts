@@ -7,6 +7,8 @@ import path from "node:path";
  * written one element at a time. (At a hundred thousand objects the full
  * audit is longer than the longest string V8 can make.)
  */
+const BUFFER_BYTES = 1 << 22;
+
 export function writeJsonStreamed(
   file: string,
   value: Record<string, unknown>,
@@ -15,20 +17,25 @@ export function writeJsonStreamed(
   mkdirSync(path.dirname(file), { recursive: true });
   const fd = openSync(file, "w");
   try {
-    let pending: string[] = [];
-    let pendingLength = 0;
-    const flush = (): void => {
-      if (pending.length === 0) return;
-      const bytes = Buffer.from(pending.join(""), "utf8");
+    // texts are encoded straight into one buffer, written out whenever the next might not fit
+    const buffer = Buffer.allocUnsafe(BUFFER_BYTES);
+    let used = 0;
+    const writeAll = (bytes: Buffer, length: number): void => {
       let off = 0;
-      while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
-      pending = [];
-      pendingLength = 0;
+      while (off < length) off += writeSync(fd, bytes, off, length - off);
+    };
+    const flush = (): void => {
+      writeAll(buffer, used);
+      used = 0;
     };
     const put = (text: string): void => {
-      pending.push(text);
-      pendingLength += text.length;
-      if (pendingLength >= 1 << 20) flush();
+      // at most three UTF-8 bytes per UTF-16 code unit
+      const most = 3 * text.length;
+      if (used + most > BUFFER_BYTES) flush();
+      if (most > BUFFER_BYTES) {
+        const bytes = Buffer.from(text, "utf8");
+        writeAll(bytes, bytes.length);
+      } else used += buffer.write(text, used, "utf8");
     };
     put("{");
     let first = true;

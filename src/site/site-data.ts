@@ -5,7 +5,8 @@ import type { MethodDefinition } from "../methods/method.js";
 import { underBase } from "./base-path.js";
 import { constantsView, type ConstantView } from "./constants-view.js";
 import { DOWNLOADS } from "./downloads.js";
-import { homeRows, statusCounts, type HomeRow, type StatusCount } from "./home-view.js";
+import { fragmentsOf } from "./fragments.js";
+import { statusCounts, type HomeRow, type StatusCount } from "./home-view.js";
 import { methodsView, type MethodView } from "./methods-view.js";
 import { objectPageView, type MethodLookup, type ObjectPageView } from "./object-view.js";
 import { problemsByFile, problemsView, type ProblemsView } from "./problems-view.js";
@@ -47,6 +48,19 @@ export interface SiteInputs {
   readonly previous?: PreviousAudit;
 }
 
+/** homeRows(report, lookup), from each object's fragments. */
+function homeRowsOf(report: AuditReport, lookup: MethodLookup): HomeRow[] {
+  const rows: HomeRow[] = [];
+  for (const o of report.objects) {
+    const h = fragmentsOf(o).home;
+    if (h === null) continue;
+    // the fragment names methods from the registry; the site's own list decides
+    const title = lookup(h.row.method)?.title ?? h.row.method;
+    rows.push(title === h.methodTitle ? h : { ...h, methodTitle: title });
+  }
+  return rows;
+}
+
 export function buildSiteData(input: SiteInputs): SiteData {
   const { report } = input;
   const byId = new Map(input.methods.map((m) => [m.id, m]));
@@ -59,7 +73,7 @@ export function buildSiteData(input: SiteInputs): SiteData {
     summary: report.summary,
     counts: statusCounts(report),
     statuses: [...STATUSES].map(statusView).sort((a, b) => b.rank - a.rank),
-    rows: homeRows(report, lookup),
+    rows: homeRowsOf(report, lookup),
     objects: report.objects,
     problems: problemsView(report),
     methods: methodsView(input.methods),

@@ -1,0 +1,66 @@
+import type { ObjectAudit } from "../audit/types.js";
+import { combineObject } from "../combine/combine-object.js";
+import { votableRows, type VotableRow } from "../export/votable.js";
+import { getMethod } from "../methods/index.js";
+import { objectBibtex } from "./bibtex.js";
+import { csvLine } from "./csv.js";
+import { homeRow, type HomeRow } from "./home-view.js";
+import { TABLE_COLUMNS, tableRow } from "./table.js";
+
+/**
+ * What one object contributes to the pages and downloads that list every
+ * object: its line of the reference-table CSV, its row of the reference-table
+ * JSON, its BibTeX entries, its rows of the VOTable and its row of the home
+ * table, each in the very text (or data) the whole file is assembled from.
+ *
+ * They are made where the object is audited (on a build worker, in parallel
+ * with the others) and kept in the build cache with its audit, so that a
+ * rebuild after one record changed assembles those files from the pieces of
+ * the unchanged objects instead of making every piece again. A shared file is
+ * always assembled from pieces, cached or fresh, so it is the same either way.
+ */
+export interface ObjectFragments {
+  /** Its CSV line, without the line end; null when the object has no row. */
+  readonly csv: string | null;
+  /** Its element of the JSON table's "rows" array, indented as it is written there; null when it has no row. */
+  readonly json: string | null;
+  /** Its BibTeX entries joined by a newline; "" when it has no measurement. */
+  readonly bib: string;
+  /** One VOTable row per result with a combined value. */
+  readonly votable: readonly VotableRow[];
+  /** Its row of the home table (method titles from the method registry); null when it has no row. */
+  readonly home: HomeRow | null;
+}
+
+/** Each element of the "rows" array of JSON.stringify(..., null, 1) sits two levels deep: two more spaces on every line. */
+export function indentedJsonRow(row: unknown): string {
+  return "  " + JSON.stringify(row, null, 1).replace(/\n/g, "\n  ");
+}
+
+export function makeFragments(obj: ObjectAudit): ObjectFragments {
+  const row = tableRow(obj);
+  return {
+    csv: row ? csvLine(TABLE_COLUMNS, row) : null,
+    json: row ? indentedJsonRow(row) : null,
+    bib: objectBibtex(obj),
+    votable: votableRows(obj, obj.combined ?? combineObject(obj)),
+    home: homeRow(obj, getMethod) ?? null,
+  };
+}
+
+/** Fragments by object: made once per object and build, or adopted from the cache. */
+const known = new WeakMap<ObjectAudit, ObjectFragments>();
+
+export function fragmentsOf(obj: ObjectAudit): ObjectFragments {
+  let f = known.get(obj);
+  if (f === undefined) {
+    f = makeFragments(obj);
+    known.set(obj, f);
+  }
+  return f;
+}
+
+/** Takes fragments made elsewhere (a worker, the cache) for this object; they must be makeFragments(obj). */
+export function adoptFragments(obj: ObjectAudit, fragments: ObjectFragments): void {
+  known.set(obj, fragments);
+}
