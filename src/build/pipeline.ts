@@ -85,6 +85,8 @@ export interface PipelineOutcome {
   readonly stats: PipelineStats;
   /** The key of the whole report (every file's path and key, in order); undefined when a file could not be read. */
   readonly reportKey?: string;
+  /** The content key of the record file of each object of the report. */
+  readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
 }
 
 /** The settings of the report the options give (as auditRecords resolves them). */
@@ -301,8 +303,10 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     }
   }
   const stats = { files: files.length, reused, audited: toAudit.length, pagesWritten, pagesKept, pagesRemoved };
-  if (entries.some((e) => e.key === "")) return { report, stats };
-  return { report, stats, reportKey: digest([shared, ...entries.flatMap((e) => [e.file, e.key])]) };
+  const objectKeys = new Map<ObjectAudit, string>();
+  for (const e of kept) if (e.audit?.object && e.key !== "") objectKeys.set(e.audit.object, e.key);
+  if (entries.some((e) => e.key === "")) return { report, stats, objectKeys };
+  return { report, stats, reportKey: digest([shared, ...entries.flatMap((e) => [e.file, e.key])]), objectKeys };
 }
 
 /**

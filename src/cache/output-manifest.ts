@@ -1,6 +1,7 @@
 import { readdirSync, rmdirSync, rmSync, statSync } from "node:fs";
 import path from "node:path";
 import { readChunkedFile, writeChunkedFile } from "./chunked-file.js";
+import type { Segment } from "../site/json-stream.js";
 
 /**
  * What the last cached build wrote into one output folder: per file (a path
@@ -15,6 +16,8 @@ export interface OutputEntry {
   readonly key: string;
   readonly size: number;
   readonly mtimeMs: number;
+  /** For a file assembled from keyed pieces (the full audit JSON): where each piece lies in it. */
+  readonly segments?: readonly Segment[];
 }
 
 const KIND = "steelyard-output";
@@ -118,9 +121,19 @@ export class OutputManifest {
     return true;
   }
 
-  /** Records a file just written from `key`. */
-  wrote(relPath: string, key: string, size: number, mtimeMs: number): void {
-    this.after.set(relPath, { path: relPath, key, size, mtimeMs });
+  /** Records a file just written from `key`, with its pieces' places when it was assembled from keyed pieces. */
+  wrote(relPath: string, key: string, size: number, mtimeMs: number, segments?: readonly Segment[]): void {
+    this.after.set(relPath, { path: relPath, key, size, mtimeMs, ...(segments ? { segments } : {}) });
+  }
+
+  /**
+   * The pieces' places in `relPath` as the last build wrote it, when it is
+   * still exactly that file (same size and time); undefined otherwise.
+   */
+  previousSegments(relPath: string): readonly Segment[] | undefined {
+    const e = this.before.get(relPath);
+    if (!e?.segments) return undefined;
+    return sameFile(path.join(this.outDir, ...relPath.split("/")), e.size, e.mtimeMs) ? e.segments : undefined;
   }
 
   /**

@@ -200,7 +200,13 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
     keyed,
   );
   const { report } = run;
-  const cache: SiteCache | undefined = manifest ? { manifest, ...(run.reportKey !== undefined ? { reportKey: run.reportKey } : {}) } : undefined;
+  const cache: SiteCache | undefined = manifest
+    ? {
+        manifest,
+        ...(run.reportKey !== undefined ? { reportKey: run.reportKey } : {}),
+        ...(run.objectKeys ? { objectKeys: run.objectKeys } : {}),
+      }
+    : undefined;
   const pages = await renderSite({
     report,
     outDir,

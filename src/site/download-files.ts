@@ -1,14 +1,30 @@
 import { closeSync, fstatSync, mkdirSync, openSync, writeSync } from "node:fs";
 import path from "node:path";
-import type { AuditReport } from "../audit/types.js";
+import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
 import { DOWNLOADS } from "./downloads.js";
-import { writeJsonStreamed } from "./json-stream.js";
+import { writeJsonStreamed, type StreamedFile } from "./json-stream.js";
+
+/** Where a build with a cache finds the pieces of the full audit JSON it may copy from the last one. */
+interface StreamCache {
+  readonly manifest: OutputManifest;
+  /** The content key of each object's record file, by object; absent: nothing is copied. */
+  readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
+}
 
 /** Downloads written as a stream, object by object, instead of through their render function. */
-const STREAMED: Readonly<Record<string, (report: AuditReport, file: string) => { size: number; mtimeMs: number }>> = {
-  audit_json: (report, file) => writeJsonStreamed(file, report as unknown as Record<string, unknown>, new Set(["objects"])),
+const STREAMED: Readonly<
+  Record<string, (report: AuditReport, file: string, relPath: string, cache?: StreamCache) => StreamedFile>
+> = {
+  audit_json: (report, file, relPath, cache) => {
+    const keys = cache?.objectKeys;
+    const segments = keys ? cache.manifest.previousSegments(relPath) : undefined;
+    return writeJsonStreamed(file, report as unknown as Record<string, unknown>, new Set(["objects"]), {
+      ...(keys ? { keyOf: (item: unknown) => keys.get(item as ObjectAudit) } : {}),
+      ...(segments ? { reuse: { file, segments } } : {}),
+    });
+  },
 };
 
 function writeText(file: string, text: string): { size: number; mtimeMs: number } {
@@ -33,7 +49,7 @@ function writeText(file: string, text: string): { size: number; mtimeMs: number 
 export function writeDownloads(
   report: AuditReport,
   outDir: string,
-  cache?: { readonly manifest: OutputManifest; readonly reportKey: string },
+  cache?: { readonly manifest: OutputManifest; readonly reportKey: string; readonly objectKeys?: ReadonlyMap<ObjectAudit, string> },
 ): number {
   let written = 0;
   for (const d of DOWNLOADS) {
@@ -41,8 +57,13 @@ export function writeDownloads(
     if (cache && cache.manifest.reuse(d.path, key)) continue;
     const file = path.join(outDir, ...d.path.split("/"));
     const streamed = STREAMED[d.key];
-    const info = streamed ? streamed(report, file) : writeText(file, d.render(report));
-    if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs);
+    if (streamed) {
+      const info = streamed(report, file, d.path, cache);
+      if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs, cache.objectKeys ? info.segments : undefined);
+    } else {
+      const info = writeText(file, d.render(report));
+      if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs);
+    }
     written++;
   }
   return written;

@@ -1,4 +1,4 @@
-import type { AuditReport } from "../audit/types.js";
+import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { PreviousAudit } from "./changes-view.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 
@@ -8,6 +8,8 @@ export interface SiteCache {
   readonly manifest: OutputManifest;
   /** The key of the whole report (every record file's key, in order); undefined when unknown. */
   readonly reportKey?: string;
+  /** The content key of each object's record file: an object whose key the last build's audit JSON lists is copied from it. */
+  readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
 }
 
 /**

@@ -151,7 +151,9 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
     writeDownloads(
       await report(),
       path.resolve(outDir),
-      cache?.reportKey !== undefined ? { manifest: cache.manifest, reportKey: cache.reportKey } : undefined,
+      cache?.reportKey !== undefined
+        ? { manifest: cache.manifest, reportKey: cache.reportKey, ...(cache.objectKeys ? { objectKeys: cache.objectKeys } : {}) }
+        : undefined,
     );
   });
 

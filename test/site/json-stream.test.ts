@@ -33,3 +33,41 @@ describe("streamed JSON", () => {
     expect(readFileSync(file, "utf8")).toBe(JSON.stringify(value) + "\n");
   });
 });
+
+describe("streamed JSON that copies unchanged elements from the file it replaces", () => {
+  const keyOf = (item: unknown) => (item as { id?: string }).id;
+
+  it("copies the elements whose key it knows and writes the rest, the bytes of JSON.stringify", () => {
+    const file = path.join(dir, "reuse.json");
+    const items = Array.from({ length: 3000 }, (_, i) => ({ id: `k${i}`, text: "σ ü ".repeat(i % 50), v: i / 3 }));
+    const first = writeJsonStreamed(file, { head: 1, objects: items }, new Set(["objects"]), { keyOf });
+    expect(first.reused).toBe(0);
+    expect(first.segments).toHaveLength(3000);
+
+    // one element changed under a new key, one removed, one added, the head changed
+    const next = [...items];
+    next[10] = { id: "k10-edited", text: "changed", v: -1 };
+    next.splice(20, 1);
+    next.push({ id: "new", text: "added", v: 0 });
+    const value = { head: 2, objects: next };
+    const second = writeJsonStreamed(file, value, new Set(["objects"]), { keyOf, reuse: { file, segments: first.segments } });
+    expect(readFileSync(file, "utf8")).toBe(JSON.stringify(value) + "\n");
+    expect(second.reused).toBe(next.length - 2);
+    // the new segments describe the new file
+    const bytes = readFileSync(file);
+    for (const [key, offset, length] of second.segments.slice(0, 50)) {
+      expect(JSON.parse(bytes.subarray(offset, offset + length).toString("utf8")).id).toBe(key);
+    }
+  });
+
+  it("writes everything afresh when the earlier file is gone", () => {
+    const file = path.join(dir, "gone.json");
+    const value = { objects: [{ id: "a" }, { id: "b" }] };
+    const out = writeJsonStreamed(file, value, new Set(["objects"]), {
+      keyOf,
+      reuse: { file: path.join(dir, "missing.json"), segments: [["a", 0, 5]] },
+    });
+    expect(out.reused).toBe(0);
+    expect(readFileSync(file, "utf8")).toBe(JSON.stringify(value) + "\n");
+  });
+});
