@@ -8,8 +8,9 @@ import { DEFAULT_THRESHOLDS } from "../audit/compare.js";
 import { runAudit } from "../audit/run.js";
 import { STATUSES, type AuditReport, type ObjectAudit, type Status } from "../audit/types.js";
 import { cacheFileFor } from "../cache/cache-dir.js";
-import { readRecordStore, writeRecordStore } from "../cache/record-store.js";
+import { readRecordStore, writeRecordStore, type StoreCodec } from "../cache/record-store.js";
 import { digest } from "../cache/digest.js";
+import { lazyAudit, storeAudit, summaryOf, type AuditSummary } from "../cache/lazy-audit.js";
 import { folderDigest, toolFingerprint } from "../cache/fingerprint.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { DEFAULT_SET } from "../constants/sets.js";
@@ -196,8 +197,29 @@ export function recordCacheFolder(cacheDir: string, recordsDir: string): string 
 
 /** Reads the cache of a records folder: its entries by file. */
 export function readRecordCache(cacheDir: string, recordsDir: string): Map<string, RecordEntry> {
-  return readRecordStore<RecordEntry>(recordCacheFolder(cacheDir, recordsDir));
+  return readRecordStore<RecordEntry>(recordCacheFolder(cacheDir, recordsDir), ENTRY_CODEC);
 }
+
+/** An entry as the cache keeps it: its object audit as a summary here and its bytes as the entry's blob (see lazy-audit.ts). */
+interface StoredEntry extends Omit<RecordEntry, "audit"> {
+  readonly audit?: { readonly problems: readonly Problem[]; readonly summary?: AuditSummary };
+}
+
+const ENTRY_CODEC: StoreCodec<RecordEntry> = {
+  encode(e) {
+    if (!e.audit) return { value: e };
+    const { object, problems } = e.audit;
+    if (!object) return { value: { ...e, audit: { problems } } };
+    const { summary, bytes } = storeAudit(object);
+    return { value: { ...e, audit: { problems, summary } } satisfies StoredEntry, blob: bytes };
+  },
+  decode(v, blob) {
+    const s = v as StoredEntry;
+    if (!s || !s.audit) return s as RecordEntry;
+    const { summary, problems } = s.audit;
+    return { ...s, audit: summary && blob ? { problems, object: lazyAudit(summary, blob) } : { problems } };
+  },
+};
 
 /** Audits `recordsDir` (reusing and updating the cache) and, when asked, writes the object pages. */
 export async function runPipeline(recordsDir: string, options: PipelineOptions, keyed?: FolderKeys): Promise<PipelineOutcome> {
@@ -297,7 +319,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   const unchanged = reused === entries.length && previous.size === entries.length;
   if (cacheFolder && !unchanged) {
     try {
-      writeRecordStore(cacheFolder, entries.filter((e) => e.key !== ""), previous);
+      writeRecordStore(cacheFolder, entries.filter((e) => e.key !== ""), previous, ENTRY_CODEC);
     } catch {
       // a cache that cannot be written only makes the next build slower
     }
@@ -360,8 +382,10 @@ function assemble(files: readonly string[], kept: readonly RecordEntry[], loadPr
     problems.push(...audit.problems);
     if (!audit.object) continue;
     objects.push(audit.object);
-    for (const m of audit.object.measurements) counts[m.status]++;
-    measurements += audit.object.measurements.length;
+    // from the summary, so that an audit read from the cache stays unopened
+    const { statuses } = summaryOf(audit.object);
+    for (const st of statuses) counts[st]++;
+    measurements += statuses.length;
   }
   sortAsReport(problems);
   const withErrors = new Set<string>();

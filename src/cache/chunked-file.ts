@@ -60,7 +60,10 @@ export function readChunkedFile(file: string, kind: string): unknown[] | undefin
     while (need(4)) {
       const len = buf.readUInt32LE(start);
       if (!need(4 + len)) return undefined;
-      const value = deserialize(buf.subarray(start + 4, start + 4 + len));
+      // from a copy: deserialize() gives byte arrays that view its input, and `buf` is reused
+      const own = Buffer.allocUnsafeSlow(len);
+      buf.copy(own, 0, start + 4, start + 4 + len);
+      const value = deserialize(own);
       start += 4 + len;
       if (header === undefined) {
         header = value as Header;

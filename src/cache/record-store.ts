@@ -1,4 +1,5 @@
-import { readdirSync, rmSync, statSync } from "node:fs";
+import { closeSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync, writeSync } from "node:fs";
+import { randomBytes } from "node:crypto";
 import path from "node:path";
 import { readChunkedFile, writeChunkedFile } from "./chunked-file.js";
 import { digest } from "./digest.js";
@@ -25,16 +26,126 @@ export function shardOf(file: string): number {
   return parseInt(digest([file]).slice(0, 6), 16) % SHARDS;
 }
 
+/**
+ * How entries are kept: the value written to the shard, and apart from it
+ * the bytes of a blob that is read back only when asked for (the identity by
+ * default: no blobs).
+ */
+export interface StoreCodec<T> {
+  encode(entry: T): { readonly value: unknown; readonly blob?: Uint8Array };
+  /** `blob` reads the entry's blob back, when it has one. */
+  decode(value: unknown, blob?: () => Uint8Array): T;
+}
+
+const IDENTITY: StoreCodec<never> = {
+  encode: (e) => ({ value: e }),
+  decode: (v) => v as never,
+};
+
+/**
+ * A shard's values as written: the name and size of its blob file first,
+ * then per entry its value and its blob's place. Each writing of a shard
+ * makes a blob file of a new name, so a shard never reads blobs written for
+ * another version of it.
+ */
+interface ShardHead {
+  readonly blobs: string;
+  readonly blobBytes: number;
+}
+interface ShardRecord {
+  readonly value: unknown;
+  readonly at?: number;
+  readonly length?: number;
+}
+
+const shardPrefix = (n: number): string => `shard-${String(n).padStart(2, "0")}.`;
+
+/** The blob files of shard n in the folder, by name. */
+function blobFilesOf(folder: string, n: number): string[] {
+  try {
+    return readdirSync(folder).filter((name) => name.startsWith(shardPrefix(n)) && name.endsWith(".blobs"));
+  } catch {
+    return [];
+  }
+}
+
+function readBlob(file: string, at: number, length: number): Uint8Array {
+  const out = Buffer.allocUnsafeSlow(length);
+  const fd = openSync(file, "r");
+  try {
+    let got = 0;
+    while (got < length) {
+      const n = readSync(fd, out, got, length - got, at + got);
+      if (n <= 0) throw new Error(`record store: ${file} ends before the ${length} bytes at ${at} it should hold`);
+      got += n;
+    }
+  } finally {
+    closeSync(fd);
+  }
+  return out;
+}
+
+function blobBytesOnDisk(file: string): number {
+  try {
+    return statSync(file).size;
+  } catch {
+    return 0;
+  }
+}
+
 /** Every entry of the store by record file; a missing or damaged shard is an empty one. */
-export function readRecordStore<T extends Keyed>(folder: string): Map<string, T> {
+export function readRecordStore<T extends Keyed>(folder: string, codec: StoreCodec<T> = IDENTITY as StoreCodec<T>): Map<string, T> {
   const out = new Map<string, T>();
   for (let n = 0; n < SHARDS; n++) {
-    for (const v of readChunkedFile(shardFile(folder, n), KIND) ?? []) {
-      const e = v as T;
+    const values = readChunkedFile(shardFile(folder, n), KIND);
+    if (!values || values.length === 0) continue;
+    const head = values[0] as ShardHead;
+    if (!head || typeof head.blobs !== "string" || typeof head.blobBytes !== "number" || head.blobs.includes("/")) continue;
+    const blobs = path.join(folder, head.blobs);
+    // a blob file missing or of another size makes the whole shard unusable
+    if (head.blobBytes > 0 && blobBytesOnDisk(blobs) !== head.blobBytes) continue;
+    for (let k = 1; k < values.length; k++) {
+      const r = values[k] as ShardRecord;
+      if (!r) continue;
+      const { at, length } = r;
+      const e = codec.decode(r.value, at !== undefined && length !== undefined ? () => readBlob(blobs, at, length) : undefined);
       if (e && typeof e.file === "string" && typeof e.key === "string" && shardOf(e.file) === n) out.set(e.file, e);
     }
   }
   return out;
+}
+
+/** Writes one shard: its blobs to a new file first, then its values, then the old blob files go. */
+function writeShard<T>(folder: string, n: number, list: readonly T[], codec: StoreCodec<T>): void {
+  mkdirSync(folder, { recursive: true });
+  const name = `${shardPrefix(n)}${randomBytes(8).toString("hex")}.blobs`;
+  const blobs = path.join(folder, name);
+  const records: ShardRecord[] = [];
+  const fd = openSync(blobs, "w");
+  let at = 0;
+  try {
+    // an entry read from the old blob files reads its blob here, before they go
+    for (const e of list) {
+      const { value, blob } = codec.encode(e);
+      if (blob === undefined) {
+        records.push({ value });
+        continue;
+      }
+      let off = 0;
+      while (off < blob.length) off += writeSync(fd, blob, off, blob.length - off);
+      records.push({ value, at, length: blob.length });
+      at += blob.length;
+    }
+  } catch (error) {
+    closeSync(fd);
+    rmSync(blobs, { force: true });
+    throw error;
+  }
+  closeSync(fd);
+  if (at === 0) rmSync(blobs, { force: true });
+  const kept = at === 0 ? "" : name;
+  writeChunkedFile(shardFile(folder, n), KIND, [{ blobs: kept, blobBytes: at } satisfies ShardHead, ...records]);
+  for (const old of blobFilesOf(folder, n)) if (old !== kept) rmSync(path.join(folder, old), { force: true });
 }
 
 /**
@@ -42,7 +153,12 @@ export function readRecordStore<T extends Keyed>(folder: string): Map<string, T>
  * the start of the build): an entry taken over unchanged is the same object.
  * Resolves to the number of shards written.
  */
-export function writeRecordStore<T extends Keyed>(folder: string, entries: readonly T[], previous: ReadonlyMap<string, T>): number {
+export function writeRecordStore<T extends Keyed>(
+  folder: string,
+  entries: readonly T[],
+  previous: ReadonlyMap<string, T>,
+  codec: StoreCodec<T> = IDENTITY as StoreCodec<T>,
+): number {
   const shards: T[][] = Array.from({ length: SHARDS }, () => []);
   for (const e of entries) shards[shardOf(e.file)].push(e);
   const before = new Array<number>(SHARDS).fill(0);
@@ -51,8 +167,10 @@ export function writeRecordStore<T extends Keyed>(folder: string, entries: reado
   shards.forEach((list, n) => {
     const same = list.length === before[n] && list.every((e) => previous.get(e.file) === e);
     if (same) return;
-    if (list.length === 0) rmSync(shardFile(folder, n), { force: true });
-    else writeChunkedFile(shardFile(folder, n), KIND, list);
+    if (list.length === 0) {
+      rmSync(shardFile(folder, n), { force: true });
+      for (const old of blobFilesOf(folder, n)) rmSync(path.join(folder, old), { force: true });
+    } else writeShard(folder, n, list, codec);
     written++;
   });
   return written;
@@ -63,7 +181,7 @@ export function recordStoreState(folder: string): string {
   const parts: string[] = [];
   let names: string[];
   try {
-    names = readdirSync(folder).filter((n) => n.endsWith(".bin")).sort();
+    names = readdirSync(folder).filter((n) => n.endsWith(".bin") || n.endsWith(".blobs")).sort();
   } catch {
     return "missing";
   }

@@ -5,13 +5,15 @@ import { getMethod } from "../methods/index.js";
 import { objectBibtex } from "./bibtex.js";
 import { csvLine } from "./csv.js";
 import { homeRow, type HomeRow } from "./home-view.js";
+import { objectFlags, type FlagView } from "./problems-view.js";
 import { TABLE_COLUMNS, tableRow } from "./table.js";
 
 /**
  * What one object contributes to the pages and downloads that list every
  * object: its line of the reference-table CSV, its row of the reference-table
- * JSON, its BibTeX entries, its rows of the VOTable and its row of the home
- * table, each in the very text (or data) the whole file is assembled from.
+ * JSON, its BibTeX entries, its rows of the VOTable, its row of the home
+ * table and its flags on the problems page, each in the very text (or data)
+ * the whole file is assembled from.
  *
  * They are made where the object is audited (on a build worker, in parallel
  * with the others) and kept in the build cache with its audit, so that a
@@ -30,6 +32,8 @@ export interface ObjectFragments {
   readonly votable: readonly VotableRow[];
   /** Its row of the home table (method titles from the method registry); null when it has no row. */
   readonly home: HomeRow | null;
+  /** Its tension and discrepant comparisons, for the problems page. */
+  readonly flags: readonly FlagView[];
 }
 
 /** Each element of the "rows" array of JSON.stringify(..., null, 1) sits two levels deep: two more spaces on every line. */
@@ -45,11 +49,19 @@ export function makeFragments(obj: ObjectAudit): ObjectFragments {
     bib: objectBibtex(obj),
     votable: votableRows(obj, obj.combined ?? combineObject(obj)),
     home: homeRow(obj, getMethod) ?? null,
+    flags: objectFlags(obj),
   };
 }
 
-/** Fragments by object: made once per object and build, or adopted from the cache. */
-const known = new WeakMap<ObjectAudit, ObjectFragments>();
+/**
+ * Fragments by object: made once per object and build, or adopted from the
+ * cache. One map per process (a registered symbol), so that the build
+ * pipeline and the site plugin share it even when one runs from the compiled
+ * code and the other from the sources, as under the test runner.
+ */
+const KNOWN = Symbol.for("steelyard.site.fragments");
+const holder = globalThis as { [KNOWN]?: WeakMap<ObjectAudit, ObjectFragments> };
+const known = (holder[KNOWN] ??= new WeakMap<ObjectAudit, ObjectFragments>());
 
 export function fragmentsOf(obj: ObjectAudit): ObjectFragments {
   let f = known.get(obj);

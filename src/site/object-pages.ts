@@ -3,6 +3,7 @@ import { availableParallelism } from "node:os";
 import { fileURLToPath } from "node:url";
 import { runBatches } from "../workers/batch-pool.js";
 import type { ObjectAudit } from "../audit/types.js";
+import { realAudit } from "../cache/lazy-audit.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import type { Problem } from "../problem.js";
 import type { PageWorkerData, PageWorkerReply, PageWorkerRequest } from "./object-page-worker.js";
@@ -88,7 +89,8 @@ export async function writeObjectPages(options: ObjectPagesOptions): Promise<Obj
       kept++;
       continue;
     }
-    todo.push({ obj, problems: options.problemsOf(obj.file) });
+    // an audit read lazily from the cache cannot be posted to a worker as it is
+    todo.push({ obj: realAudit(obj), problems: options.problemsOf(obj.file) });
   }
   const onWritten = (p: WrittenPage): void => {
     const key = cache?.keys.get(p.id);

@@ -9,7 +9,7 @@ import { fragmentsOf } from "./fragments.js";
 import { statusCounts, type HomeRow, type StatusCount } from "./home-view.js";
 import { methodsView, type MethodView } from "./methods-view.js";
 import { objectPageView, type MethodLookup, type ObjectPageView } from "./object-view.js";
-import { problemsByFile, problemsView, type ProblemsView } from "./problems-view.js";
+import { problemsByFile, problemsView, sortFlags, type ProblemsView } from "./problems-view.js";
 import { STATUSES } from "../audit/types.js";
 import { statusView, type StatusView } from "./status.js";
 import { changesView, type ChangesView, type PreviousAudit } from "./changes-view.js";
@@ -75,7 +75,7 @@ export function buildSiteData(input: SiteInputs): SiteData {
     statuses: [...STATUSES].map(statusView).sort((a, b) => b.rank - a.rank),
     rows: homeRowsOf(report, lookup),
     objects: report.objects,
-    problems: problemsView(report),
+    problems: problemsView(report, sortFlags(report.objects.map((o) => fragmentsOf(o).flags))),
     methods: methodsView(input.methods),
     constants: constantsView(input.constants),
     downloads: DOWNLOADS.map(({ key, path, title, format }) => ({ key, path, title, format })),

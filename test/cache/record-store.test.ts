@@ -1,8 +1,8 @@
-import { mkdtempSync, readdirSync, rmSync, statSync } from "node:fs";
+import { appendFileSync, mkdtempSync, readdirSync, rmSync, statSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { readRecordStore, recordStoreState, shardOf, SHARDS, writeRecordStore } from "../../src/cache/record-store.js";
+import { readRecordStore, recordStoreState, shardOf, SHARDS, writeRecordStore, type StoreCodec } from "../../src/cache/record-store.js";
 
 const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-store-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -38,5 +38,75 @@ describe("sharded record store", () => {
     const fewer = [...again.values()].filter((e) => e.file !== "000/rec-0.yaml");
     expect(writeRecordStore(folder, fewer, again)).toBe(1);
     expect(readRecordStore<E>(folder).size).toBe(499);
+  });
+});
+
+describe("record store with blobs kept apart", () => {
+  interface B {
+    readonly file: string;
+    readonly key: string;
+    /** Reads the blob back (from the store's blob file, on demand). */
+    readonly blob: () => Uint8Array;
+  }
+  let reads = 0;
+  const codec: StoreCodec<B> = {
+    encode: (e) => ({ value: { file: e.file, key: e.key }, blob: e.blob() }),
+    decode: (v, blob) => {
+      const { file, key } = v as { file: string; key: string };
+      let cached: Uint8Array | undefined;
+      return {
+        file,
+        key,
+        blob: () => {
+          if (!cached) {
+            reads++;
+            cached = blob!();
+          }
+          return cached;
+        },
+      };
+    },
+  };
+  const made = (i: number, tag = ""): B => {
+    const bytes = Buffer.from(`blob of ${i}${tag} `.repeat(1 + (i % 13)));
+    return { file: `${String(i % 5).padStart(3, "0")}/rec-${i}.yaml`, key: `k${i}${tag}`, blob: () => bytes };
+  };
+  const text = (e: B | undefined) => Buffer.from(e!.blob()).toString("utf8");
+
+  it("reads a blob only when asked, and keeps the blobs of a shard written again", () => {
+    const folder = path.join(dir, "blobs");
+    const entries = Array.from({ length: 300 }, (_, i) => made(i));
+    writeRecordStore(folder, entries, new Map(), codec);
+    reads = 0;
+    const back = readRecordStore(folder, codec);
+    expect(back.size).toBe(300);
+    expect(reads).toBe(0);
+    expect(text(back.get("002/rec-7.yaml"))).toBe("blob of 7 ".repeat(8));
+    expect(reads).toBe(1);
+
+    // one entry changes: its shard is written again, with the blobs of its neighbours read from the old file first
+    const next = [...back.values()].map((e) => (e.file === "003/rec-8.yaml" ? made(8, "b") : e));
+    expect(writeRecordStore(folder, next, back, codec)).toBe(1);
+    const again = readRecordStore(folder, codec);
+    for (const e of entries) {
+      const want = e.file === "003/rec-8.yaml" ? "blob of 8b ".repeat(9) : text(e);
+      expect(text(again.get(e.file))).toBe(want);
+    }
+    // one blob file per shard is left
+    const shard = String(shardOf("003/rec-8.yaml")).padStart(2, "0");
+    expect(readdirSync(folder).filter((f) => f.startsWith(`shard-${shard}.`) && f.endsWith(".blobs"))).toHaveLength(1);
+  });
+
+  it("drops a shard whose blob file is missing or of another size", () => {
+    const folder = path.join(dir, "blobs-damaged");
+    writeRecordStore(folder, Array.from({ length: 100 }, (_, i) => made(i)), new Map(), codec);
+    const victim = readdirSync(folder).find((f) => f.endsWith(".blobs"))!;
+    const shard = Number(victim.slice("shard-".length, "shard-".length + 2));
+    appendFileSync(path.join(folder, victim), "x");
+    const back = readRecordStore(folder, codec);
+    const inShard = Array.from({ length: 100 }, (_, i) => made(i)).filter((e) => shardOf(e.file) === shard);
+    expect(inShard.length).toBeGreaterThan(0);
+    expect(back.size).toBe(100 - inShard.length);
+    for (const e of inShard) expect(back.has(e.file)).toBe(false);
   });
 });

@@ -6,6 +6,7 @@ import { runAudit } from "../../src/audit/run.js";
 import { buildSite, renderSite } from "../../src/site/build.js";
 import { DOWNLOADS } from "../../src/site/downloads.js";
 import { listFiles } from "./helpers/html-scan.js";
+import { isOpened } from "../../src/cache/lazy-audit.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const DEMO = path.join(ROOT, "content/records");
@@ -89,6 +90,9 @@ describe("the site with and without the cache", () => {
     const again = await buildSite({ recordsDir: records, outDir: site, quiet: true, audit: { draws: DRAWS }, cacheDir });
     expect(again.stats.audited).toBe(1);
     expect(again.stats.pagesWritten).toBe(1);
+    // the other audits came from the cache and were never deserialised: their summaries, fragments and bytes sufficed
+    const opened = again.report.objects.map((o) => [o.id, isOpened(o)] as const);
+    expect(opened.filter(([, state]) => state !== false)).toEqual([["skab-88", undefined]]);
 
     const fresh = tempDir("edit-fresh");
     await buildSite({ recordsDir: records, outDir: fresh, quiet: true, audit: { draws: DRAWS } });

@@ -11,6 +11,7 @@ import { toCsv } from "../../src/site/csv.js";
 import { DOWNLOADS } from "../../src/site/downloads.js";
 import { adoptFragments, makeFragments } from "../../src/site/fragments.js";
 import { homeRows } from "../../src/site/home-view.js";
+import { flaggedComparisons } from "../../src/site/problems-view.js";
 import { buildSiteData } from "../../src/site/site-data.js";
 import { TABLE_COLUMNS, tableRows } from "../../src/site/table.js";
 import { referenceTableVOTable } from "../../src/export/votable.js";
@@ -82,6 +83,8 @@ describe("downloads assembled from object fragments", () => {
     const r = copied(report);
     const data = buildSiteData({ report: r, basePath: "/", methods: METHODS, constants: ALL_CONSTANTS });
     expect(data.rows).toEqual(homeRows(r, getMethod));
+    expect(data.problems.flags).toEqual(flaggedComparisons(r));
+    expect(data.problems.flags.length).toBeGreaterThan(0);
     const renamed = METHODS.map((m) => ({ ...m, title: `${m.title} (renamed)` }));
     const other = buildSiteData({ report: r, basePath: "/", methods: renamed, constants: ALL_CONSTANTS });
     const lookup = (id: string) => renamed.find((m) => m.id === id);
