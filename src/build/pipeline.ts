@@ -8,9 +8,9 @@ import { DEFAULT_THRESHOLDS } from "../audit/compare.js";
 import { runAudit } from "../audit/run.js";
 import { STATUSES, type AuditReport, type ObjectAudit, type Status } from "../audit/types.js";
 import { cacheFileFor } from "../cache/cache-dir.js";
-import { readRecordStore, writeRecordStore, type StoreCodec } from "../cache/record-store.js";
+import { readRecordStore, writeRecordStore } from "../cache/record-store.js";
 import { digest } from "../cache/digest.js";
-import { lazyAudit, storeAudit, summaryOf, type AuditSummary } from "../cache/lazy-audit.js";
+import { summaryOf } from "../cache/lazy-audit.js";
 import { folderDigest, toolFingerprint } from "../cache/fingerprint.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { DEFAULT_SET } from "../constants/sets.js";
@@ -21,6 +21,8 @@ import { createPageRenderer, type PageSite } from "../site/page-render.js";
 import { objectPath } from "../site/table.js";
 import { VERSION } from "../version.js";
 import {
+  ENTRY_CODEC,
+  unpackEntry,
   attachFragments,
   auditEntriesParallel,
   fileProblems,
@@ -142,7 +144,7 @@ function auditOnWorkers(
     batchSize: BATCH,
     inFlight: IN_FLIGHT,
     request: (batch, items) => ({ kind: "files", batch, files: items }) satisfies RecordWorkerRequest,
-    onReply: (reply) => onDone(reply.entries, reply.pages),
+    onReply: (reply) => onDone(reply.entries.map(unpackEntry), reply.pages),
     name: "build worker",
     unfinished: "its records were audited",
   });
@@ -199,27 +201,6 @@ export function recordCacheFolder(cacheDir: string, recordsDir: string): string 
 export function readRecordCache(cacheDir: string, recordsDir: string): Map<string, RecordEntry> {
   return readRecordStore<RecordEntry>(recordCacheFolder(cacheDir, recordsDir), ENTRY_CODEC);
 }
-
-/** An entry as the cache keeps it: its object audit as a summary here and its bytes as the entry's blob (see lazy-audit.ts). */
-interface StoredEntry extends Omit<RecordEntry, "audit"> {
-  readonly audit?: { readonly problems: readonly Problem[]; readonly summary?: AuditSummary };
-}
-
-const ENTRY_CODEC: StoreCodec<RecordEntry> = {
-  encode(e) {
-    if (!e.audit) return { value: e };
-    const { object, problems } = e.audit;
-    if (!object) return { value: { ...e, audit: { problems } } };
-    const { summary, bytes } = storeAudit(object);
-    return { value: { ...e, audit: { problems, summary } } satisfies StoredEntry, blob: bytes };
-  },
-  decode(v, blob) {
-    const s = v as StoredEntry;
-    if (!s || !s.audit) return s as RecordEntry;
-    const { summary, problems } = s.audit;
-    return { ...s, audit: summary && blob ? { problems, object: lazyAudit(summary, blob) } : { problems } };
-  },
-};
 
 /** Audits `recordsDir` (reusing and updating the cache) and, when asked, writes the object pages. */
 export async function runPipeline(recordsDir: string, options: PipelineOptions, keyed?: FolderKeys): Promise<PipelineOutcome> {

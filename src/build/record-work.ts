@@ -6,6 +6,8 @@ import type { Location, ObjectRecord } from "../records/types.js";
 import type { PageRenderer } from "../site/page-render.js";
 import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
 import { adoptFragments, fragmentsOf, type ObjectFragments } from "../site/fragments.js";
+import { lazyAudit, storeAudit, type AuditSummary } from "../cache/lazy-audit.js";
+import type { StoreCodec } from "../cache/record-store.js";
 
 /** What the cache keeps of one record file. */
 export interface RecordEntry {
@@ -116,4 +118,56 @@ export function attachFragments(entries: readonly RecordEntry[]): void {
     if (e.fragments) adoptFragments(obj, e.fragments);
     else e.fragments = fragmentsOf(obj);
   }
+}
+
+/** An entry as the cache keeps it: its object audit as a summary here and its bytes as the entry's blob (see lazy-audit.ts). */
+interface StoredEntry extends Omit<RecordEntry, "audit"> {
+  readonly audit?: { readonly problems: readonly Problem[]; readonly summary?: AuditSummary };
+}
+
+export const ENTRY_CODEC: StoreCodec<RecordEntry> = {
+  encode(e) {
+    if (!e.audit) return { value: e };
+    const { object, problems } = e.audit;
+    if (!object) return { value: { ...e, audit: { problems } } };
+    const { summary, bytes } = storeAudit(object);
+    return { value: { ...e, audit: { problems, summary } } satisfies StoredEntry, blob: bytes };
+  },
+  decode(v, blob) {
+    const s = v as StoredEntry;
+    if (!s || !s.audit) return s as RecordEntry;
+    const { summary, problems } = s.audit;
+    return { ...s, audit: summary && blob ? { problems, object: lazyAudit(summary, blob) } : { problems } };
+  },
+};
+
+/**
+ * An entry as a build worker sends it: as the cache keeps it, with its audit's
+ * bytes beside it (handed over, not copied), so that the main thread holds
+ * each audit as bytes and a summary rather than as a tree of objects.
+ */
+export interface WireEntry {
+  readonly value: unknown;
+  readonly bytes?: Uint8Array;
+}
+
+export function packEntry(e: RecordEntry): WireEntry {
+  const { value, blob } = ENTRY_CODEC.encode(e);
+  return blob === undefined ? { value } : { value, bytes: blob };
+}
+
+/** The buffers of packed entries that can be handed over to another thread (each owned by its bytes alone). */
+export function transferables(entries: readonly WireEntry[]): ArrayBuffer[] {
+  const out: ArrayBuffer[] = [];
+  for (const w of entries) {
+    const b = w.bytes;
+    if (b && b.byteOffset === 0 && b.buffer instanceof ArrayBuffer && b.buffer.byteLength === b.byteLength) out.push(b.buffer);
+  }
+  return out;
+}
+
+export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
+  if (!("value" in w)) return w;
+  const bytes = w.bytes;
+  return ENTRY_CODEC.decode(w.value, bytes ? () => bytes : undefined);
 }

@@ -1,7 +1,18 @@
 import { parentPort, workerData } from "node:worker_threads";
 import type { RunOptions } from "../audit/audit-records.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
-import { attachFragments, auditEntries, parseFiles, writeEntryPages, type FileToAudit, type PageWritten, type RecordEntry } from "./record-work.js";
+import {
+  attachFragments,
+  auditEntries,
+  packEntry,
+  parseFiles,
+  transferables,
+  writeEntryPages,
+  type FileToAudit,
+  type PageWritten,
+  type RecordEntry,
+  type WireEntry,
+} from "./record-work.js";
 
 /**
  * A build worker: parses and audits the record files it is sent (Monte Carlo
@@ -17,7 +28,7 @@ export interface RecordWorkerData {
 export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
 
 export type RecordWorkerReply =
-  | { readonly kind: "done"; readonly batch: number; readonly entries: readonly RecordEntry[]; readonly pages: readonly PageWritten[] }
+  | { readonly kind: "done"; readonly batch: number; readonly entries: ReadonlyArray<RecordEntry | WireEntry>; readonly pages: readonly PageWritten[] }
   | { readonly kind: "failed"; readonly batch: number; readonly message: string };
 
 const port = parentPort;
@@ -38,7 +49,10 @@ if (port) {
         pages = writeEntryPages(entries, render, data.pages.outDir);
         attachFragments(entries);
       }
-      port.postMessage({ kind: "done", batch: msg.batch, entries, pages } satisfies RecordWorkerReply);
+      // for a site, the main thread needs only each audit's bytes, summary and fragments
+      const wire = data.pages ? entries.map(packEntry) : entries;
+      const transfer = data.pages ? transferables(wire as WireEntry[]) : [];
+      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages } satisfies RecordWorkerReply, transfer);
     } catch (e) {
       const error = e as Error;
       port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies RecordWorkerReply);

@@ -103,3 +103,14 @@ export function realAudit(obj: ObjectAudit): ObjectAudit {
   if (!lazy) return obj;
   return (lazy.real ??= deserialize(bytesOf(lazy)) as ObjectAudit);
 }
+
+/**
+ * JSON.stringify(obj); for a stand-in not opened yet, from a copy that is
+ * dropped at once, so that writing every audit out does not leave every
+ * audit deserialised.
+ */
+export function auditJsonText(obj: ObjectAudit): string {
+  const lazy = lazies.get(obj);
+  if (!lazy || lazy.real !== undefined) return JSON.stringify(obj);
+  return JSON.stringify(deserialize(bytesOf(lazy)));
+}

@@ -5,6 +5,7 @@ import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
 import { DOWNLOADS } from "./downloads.js";
 import { writeJsonStreamed, type StreamedFile } from "./json-stream.js";
+import { auditJsonText } from "../cache/lazy-audit.js";
 
 /** Where a build with a cache finds the pieces of the full audit JSON it may copy from the last one. */
 interface StreamCache {
@@ -21,6 +22,7 @@ const STREAMED: Readonly<
     const keys = cache?.objectKeys;
     const segments = keys ? cache.manifest.previousSegments(relPath) : undefined;
     return writeJsonStreamed(file, report as unknown as Record<string, unknown>, new Set(["objects"]), {
+      textOf: (item) => auditJsonText(item as ObjectAudit),
       ...(keys ? { keyOf: (item: unknown) => keys.get(item as ObjectAudit) } : {}),
       ...(segments ? { reuse: { file, segments } } : {}),
     });

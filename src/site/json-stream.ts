@@ -27,6 +27,8 @@ export interface StreamedOptions {
   /** The key of an element of a streamed array, or undefined for one that is never reused. */
   readonly keyOf?: (item: unknown) => string | undefined;
   readonly reuse?: ReuseBytes;
+  /** JSON.stringify of an element of a streamed array (default JSON.stringify itself). */
+  readonly textOf?: (item: unknown) => string | undefined;
 }
 
 export interface StreamedFile {
@@ -117,7 +119,7 @@ export function writeJsonStreamed(
             copy(old[1], old[2]);
             reused++;
           } else {
-            const text = JSON.stringify(item);
+            const text = options.textOf ? options.textOf(item) : JSON.stringify(item);
             // in an array, JSON.stringify writes null for what it cannot represent
             put(text === undefined ? "null" : text);
           }
