@@ -1,6 +1,6 @@
 import path from "node:path";
 import { exitCodeFor } from "./audit/audit-records.js";
-import { runAudit } from "./audit/run.js";
+import { runPipeline } from "./build/pipeline.js";
 import { textReport } from "./report/text-report.js";
 import { reportJsonChunks } from "./report/json-report.js";
 import { VERSION } from "./version.js";
@@ -153,7 +153,8 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
         return 2;
       }
     }
-    const report = await runAudit(recordsDir, options);
+    // parsed and audited on worker threads, the same report as runAudit gives
+    const report = (await runPipeline(recordsDir, { audit: options })).report;
     if (flags.has("--json")) await (io.outChunks ?? writeEach(io))(reportJsonChunks(report));
     else io.out(textReport(report));
     return exitCodeFor(report);
