@@ -1,5 +1,5 @@
-import { existsSync, lstatSync, readFileSync, statSync } from "node:fs";
-import { availableParallelism } from "node:os";
+import { existsSync, lstatSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
+import os, { availableParallelism } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { runBatches } from "../workers/batch-pool.js";
@@ -202,6 +202,23 @@ export function readRecordCache(cacheDir: string, recordsDir: string): Map<strin
   return readRecordStore<RecordEntry>(recordCacheFolder(cacheDir, recordsDir), ENTRY_CODEC);
 }
 
+/**
+ * A folder for the workers' spill files (see WireEntry), removed when the
+ * process ends: the audits in it are read whenever a stand-in is opened,
+ * which may be after the build has returned.
+ */
+function spillFolder(): string {
+  const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-audits-"));
+  if (spillFolders.size === 0) {
+    process.once("exit", () => {
+      for (const d of spillFolders) rmSync(d, { recursive: true, force: true });
+    });
+  }
+  spillFolders.add(dir);
+  return dir;
+}
+const spillFolders = new Set<string>();
+
 /** Audits `recordsDir` (reusing and updating the cache) and, when asked, writes the object pages. */
 export async function runPipeline(recordsDir: string, options: PipelineOptions, keyed?: FolderKeys): Promise<PipelineOutcome> {
   const dir = path.resolve(recordsDir);
@@ -248,7 +265,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   if (url) {
     const data: RecordWorkerData = {
       options: options.audit,
-      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site } } : {}),
+      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site }, spillDir: spillFolder() } : {}),
     };
     await auditOnWorkers(url, Math.min(workers, Math.ceil(toAudit.length / BATCH)), data, toAudit, (entries, done) => {
       for (const e of entries) slots[index.get(e.file)!] = e;

@@ -7,7 +7,8 @@ import type { PageRenderer } from "../site/page-render.js";
 import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
 import { adoptFragments, fragmentsOf, type ObjectFragments } from "../site/fragments.js";
 import { lazyAudit, storeAudit, type AuditSummary } from "../cache/lazy-audit.js";
-import type { StoreCodec } from "../cache/record-store.js";
+import { readBlob, type StoreCodec } from "../cache/record-store.js";
+import { closeSync, openSync, writeSync } from "node:fs";
 
 /** What the cache keeps of one record file. */
 export interface RecordEntry {
@@ -142,32 +143,47 @@ export const ENTRY_CODEC: StoreCodec<RecordEntry> = {
 };
 
 /**
- * An entry as a build worker sends it: as the cache keeps it, with its audit's
- * bytes beside it (handed over, not copied), so that the main thread holds
- * each audit as bytes and a summary rather than as a tree of objects.
+ * An entry as a build worker sends it: as the cache keeps it, with its
+ * audit's bytes written to the worker's spill file (their place sent along),
+ * so that the main thread holds each audit as a summary and a file offset
+ * rather than as a tree of objects or even as bytes.
  */
 export interface WireEntry {
   readonly value: unknown;
-  readonly bytes?: Uint8Array;
+  readonly spill?: { readonly file: string; readonly at: number; readonly length: number };
 }
 
-export function packEntry(e: RecordEntry): WireEntry {
-  const { value, blob } = ENTRY_CODEC.encode(e);
-  return blob === undefined ? { value } : { value, bytes: blob };
-}
+/** A file that one worker appends audits to; it stays until the process ends. */
+export class SpillFile {
+  private fd: number | undefined;
+  private size = 0;
+  constructor(readonly file: string) {}
 
-/** The buffers of packed entries that can be handed over to another thread (each owned by its bytes alone). */
-export function transferables(entries: readonly WireEntry[]): ArrayBuffer[] {
-  const out: ArrayBuffer[] = [];
-  for (const w of entries) {
-    const b = w.bytes;
-    if (b && b.byteOffset === 0 && b.buffer instanceof ArrayBuffer && b.buffer.byteLength === b.byteLength) out.push(b.buffer);
+  append(bytes: Uint8Array): { at: number; length: number } {
+    this.fd ??= openSync(this.file, "w");
+    const at = this.size;
+    let off = 0;
+    while (off < bytes.length) off += writeSync(this.fd, bytes, off, bytes.length - off, at + off);
+    this.size += bytes.length;
+    return { at, length: bytes.length };
   }
-  return out;
+
+  close(): void {
+    if (this.fd !== undefined) closeSync(this.fd);
+    this.fd = undefined;
+  }
+}
+
+export function packEntry(e: RecordEntry, spill: SpillFile): WireEntry {
+  const { value, blob } = ENTRY_CODEC.encode(e);
+  return blob === undefined ? { value } : { value, spill: { file: spill.file, ...spill.append(blob) } };
 }
 
 export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
   if (!("value" in w)) return w;
-  const bytes = w.bytes;
-  return ENTRY_CODEC.decode(w.value, bytes ? () => bytes : undefined);
+  const s = w.value as StoredEntry;
+  const spill = w.spill;
+  if (!spill || !s?.audit?.summary) return ENTRY_CODEC.decode(w.value);
+  const { file, at, length } = spill;
+  return { ...s, audit: { problems: s.audit.problems, object: lazyAudit(s.audit.summary, () => readBlob(file, at, length), true) } };
 }

@@ -1,4 +1,5 @@
-import { parentPort, workerData } from "node:worker_threads";
+import path from "node:path";
+import { parentPort, threadId, workerData } from "node:worker_threads";
 import type { RunOptions } from "../audit/audit-records.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import {
@@ -6,7 +7,7 @@ import {
   auditEntries,
   packEntry,
   parseFiles,
-  transferables,
+  SpillFile,
   writeEntryPages,
   type FileToAudit,
   type PageWritten,
@@ -23,6 +24,8 @@ import {
 export interface RecordWorkerData {
   readonly options: RunOptions;
   readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite };
+  /** For a site: the folder where each worker writes the bytes of its audits (see WireEntry). */
+  readonly spillDir?: string;
 }
 
 export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
@@ -35,8 +38,10 @@ const port = parentPort;
 if (port) {
   const data = workerData as RecordWorkerData;
   let render: PageRenderer | undefined;
+  let spill: SpillFile | undefined;
   port.on("message", (msg: RecordWorkerRequest) => {
     if (msg.kind === "end") {
+      spill?.close();
       port.close();
       return;
     }
@@ -49,10 +54,10 @@ if (port) {
         pages = writeEntryPages(entries, render, data.pages.outDir);
         attachFragments(entries);
       }
-      // for a site, the main thread needs only each audit's bytes, summary and fragments
-      const wire = data.pages ? entries.map(packEntry) : entries;
-      const transfer = data.pages ? transferables(wire as WireEntry[]) : [];
-      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages } satisfies RecordWorkerReply, transfer);
+      // for a site, the main thread needs only each audit's summary, fragments and the place of its bytes
+      if (data.spillDir) spill ??= new SpillFile(path.join(data.spillDir, `audits-${threadId}.bin`));
+      const wire = spill ? entries.map((e) => packEntry(e, spill!)) : entries;
+      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages } satisfies RecordWorkerReply);
     } catch (e) {
       const error = e as Error;
       port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies RecordWorkerReply);

@@ -35,6 +35,8 @@ export interface StoredAudit {
 interface Lazy {
   readonly summary: AuditSummary;
   readonly read: () => Uint8Array;
+  /** The bytes can be read again whenever asked (a file that stays), so they are not kept. */
+  readonly rereadable: boolean;
   bytes?: Uint8Array;
   real?: ObjectAudit;
 }
@@ -53,7 +55,10 @@ export function summaryOf(obj: ObjectAudit): AuditSummary {
 }
 
 function bytesOf(lazy: Lazy): Uint8Array {
-  return (lazy.bytes ??= lazy.read());
+  if (lazy.bytes !== undefined) return lazy.bytes;
+  const bytes = lazy.read();
+  if (!lazy.rereadable) lazy.bytes = bytes;
+  return bytes;
 }
 
 /** The audit as the cache stores it: a stand-in never opened gives back its own bytes (read now if need be). */
@@ -63,9 +68,14 @@ export function storeAudit(obj: ObjectAudit): StoredAudit {
   return { summary: summaryOf(obj), bytes: serialize(obj) };
 }
 
-/** The stand-in for a stored audit whose bytes `read` gives (see the module comment). */
-export function lazyAudit(summary: AuditSummary, read: () => Uint8Array): ObjectAudit {
-  const lazy: Lazy = { summary, read };
+/**
+ * The stand-in for a stored audit whose bytes `read` gives (see the module
+ * comment). Bytes read from a file that may go (a cache shard's blobs, which
+ * a rewrite of the shard replaces) are kept once read; with `rereadable`
+ * they are read afresh each time, and never held.
+ */
+export function lazyAudit(summary: AuditSummary, read: () => Uint8Array, rereadable = false): ObjectAudit {
+  const lazy: Lazy = { summary, read, rereadable };
   const real = (): ObjectAudit => (lazy.real ??= deserialize(bytesOf(lazy)) as ObjectAudit);
   const fields = summary as unknown as Record<PropertyKey, unknown>;
   const stand = new Proxy({} as ObjectAudit, {

@@ -69,7 +69,8 @@ function blobFilesOf(folder: string, n: number): string[] {
   }
 }
 
-function readBlob(file: string, at: number, length: number): Uint8Array {
+/** Bytes [at, at + length) of a file. */
+export function readBlob(file: string, at: number, length: number): Uint8Array {
   const out = Buffer.allocUnsafeSlow(length);
   const fd = openSync(file, "r");
   try {
