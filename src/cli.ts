@@ -153,9 +153,10 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
         return 2;
       }
     }
-    // parsed and audited on worker threads, the same report as runAudit gives
-    const report = (await runPipeline(recordsDir, { audit: options })).report;
-    if (flags.has("--json")) await (io.outChunks ?? writeEach(io))(reportJsonChunks(report));
+    // parsed and audited on worker threads (each object's JSON text too), the same report as runAudit gives
+    const json = flags.has("--json");
+    const { report, objectJson } = await runPipeline(recordsDir, { audit: options, ...(json ? { objectJson: true } : {}) });
+    if (json) await (io.outChunks ?? writeEach(io))(reportJsonChunks(report, (o) => objectJson?.(o)));
     else io.out(textReport(report));
     return exitCodeFor(report);
   }

@@ -22,6 +22,7 @@ import { objectPath } from "../site/table.js";
 import { VERSION } from "../version.js";
 import {
   ENTRY_CODEC,
+  entryJson,
   unpackEntry,
   attachFragments,
   auditEntriesParallel,
@@ -70,6 +71,8 @@ export interface PipelineOptions {
   readonly workers?: number;
   /** Fewer files to audit than this stay on this thread. Default 200. */
   readonly minFilesForWorkers?: number;
+  /** Have the workers make each object's text in the JSON report (PipelineOutcome.objectJson). */
+  readonly objectJson?: boolean;
 }
 
 export interface PipelineStats {
@@ -90,6 +93,8 @@ export interface PipelineOutcome {
   readonly reportKey?: string;
   /** The content key of the record file of each object of the report. */
   readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
+  /** Each object's text in the JSON report, where a worker made it (see PipelineOptions.objectJson). */
+  readonly objectJson?: (obj: ObjectAudit) => string | undefined;
 }
 
 /** The settings of the report the options give (as auditRecords resolves them). */
@@ -265,7 +270,10 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   if (url) {
     const data: RecordWorkerData = {
       options: options.audit,
-      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site }, spillDir: spillFolder() } : {}),
+      ...(options.objectJson ? { objectJson: true } : {}),
+      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site } } : {}),
+      // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file
+      ...(pages || options.objectJson ? { spillDir: spillFolder() } : {}),
     };
     await auditOnWorkers(url, Math.min(workers, Math.ceil(toAudit.length / BATCH)), data, toAudit, (entries, done) => {
       for (const e of entries) slots[index.get(e.file)!] = e;
@@ -324,9 +332,20 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   }
   const stats = { files: files.length, reused, audited: toAudit.length, pagesWritten, pagesKept, pagesRemoved };
   const objectKeys = new Map<ObjectAudit, string>();
-  for (const e of kept) if (e.audit?.object && e.key !== "") objectKeys.set(e.audit.object, e.key);
-  if (entries.some((e) => e.key === "")) return { report, stats, objectKeys };
-  return { report, stats, reportKey: digest([shared, ...entries.flatMap((e) => [e.file, e.key])]), objectKeys };
+  const withJson = new Map<ObjectAudit, RecordEntry>();
+  for (const e of kept) {
+    const obj = e.audit?.object;
+    if (!obj) continue;
+    if (e.key !== "") objectKeys.set(obj, e.key);
+    if (e.json !== undefined || e.jsonAt !== undefined) withJson.set(obj, e);
+  }
+  const objectJson = (obj: ObjectAudit): string | undefined => {
+    const e = withJson.get(obj);
+    return e ? entryJson(e) : undefined;
+  };
+  const out = { report, stats, objectKeys, ...(withJson.size > 0 ? { objectJson } : {}) };
+  if (entries.some((e) => e.key === "")) return out;
+  return { ...out, reportKey: digest([shared, ...entries.flatMap((e) => [e.file, e.key])]) };
 }
 
 /**

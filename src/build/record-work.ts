@@ -26,6 +26,17 @@ export interface RecordEntry {
   audit?: { readonly object?: ObjectAudit; readonly problems: readonly Problem[] };
   /** What its object contributes to the shared pages and downloads, made where it was audited for a site build. */
   fragments?: ObjectFragments;
+  /** Its object's text in the JSON report of `check` (objectJsonText), made where it was audited when asked for. */
+  json?: string;
+  /** Where a worker wrote that text instead (UTF-8, in its spill file). */
+  jsonAt?: SpillPlace;
+}
+
+/** A stretch of a spill file. */
+export interface SpillPlace {
+  readonly file: string;
+  readonly at: number;
+  readonly length: number;
 }
 
 /** A record file read and keyed, to be parsed and audited. */
@@ -127,7 +138,9 @@ interface StoredEntry extends Omit<RecordEntry, "audit"> {
 }
 
 export const ENTRY_CODEC: StoreCodec<RecordEntry> = {
-  encode(e) {
+  encode(whole) {
+    // the report text of `check` is not kept
+    const { json: _json, jsonAt: _jsonAt, ...e } = whole;
     if (!e.audit) return { value: e };
     const { object, problems } = e.audit;
     if (!object) return { value: { ...e, audit: { problems } } };
@@ -150,7 +163,9 @@ export const ENTRY_CODEC: StoreCodec<RecordEntry> = {
  */
 export interface WireEntry {
   readonly value: unknown;
-  readonly spill?: { readonly file: string; readonly at: number; readonly length: number };
+  readonly spill?: SpillPlace;
+  /** Where its object's JSON report text is, when the worker made it. */
+  readonly json?: SpillPlace;
 }
 
 /** A file that one worker appends audits to; it stays until the process ends. */
@@ -176,14 +191,23 @@ export class SpillFile {
 
 export function packEntry(e: RecordEntry, spill: SpillFile): WireEntry {
   const { value, blob } = ENTRY_CODEC.encode(e);
-  return blob === undefined ? { value } : { value, spill: { file: spill.file, ...spill.append(blob) } };
+  const json = e.json !== undefined ? { json: { file: spill.file, ...spill.append(Buffer.from(e.json, "utf8")) } } : {};
+  return blob === undefined ? { value, ...json } : { value, spill: { file: spill.file, ...spill.append(blob) }, ...json };
 }
 
 export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
   if (!("value" in w)) return w;
   const s = w.value as StoredEntry;
   const spill = w.spill;
-  if (!spill || !s?.audit?.summary) return ENTRY_CODEC.decode(w.value);
+  const json = w.json ? { jsonAt: w.json } : {};
+  if (!spill || !s?.audit?.summary) return { ...ENTRY_CODEC.decode(w.value), ...json };
   const { file, at, length } = spill;
-  return { ...s, audit: { problems: s.audit.problems, object: lazyAudit(s.audit.summary, () => readBlob(file, at, length), true) } };
+  return { ...s, audit: { problems: s.audit.problems, object: lazyAudit(s.audit.summary, () => readBlob(file, at, length), true) }, ...json };
+}
+
+/** An entry's JSON report text: made on this thread, or read back from where a worker wrote it. */
+export function entryJson(e: RecordEntry): string | undefined {
+  if (e.json !== undefined) return e.json;
+  const at = e.jsonAt;
+  return at ? Buffer.from(readBlob(at.file, at.at, at.length)).toString("utf8") : undefined;
 }

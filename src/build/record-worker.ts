@@ -1,5 +1,6 @@
 import path from "node:path";
 import { parentPort, threadId, workerData } from "node:worker_threads";
+import { objectJsonText } from "../report/json-report.js";
 import type { RunOptions } from "../audit/audit-records.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import {
@@ -26,6 +27,8 @@ export interface RecordWorkerData {
   readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite };
   /** For a site: the folder where each worker writes the bytes of its audits (see WireEntry). */
   readonly spillDir?: string;
+  /** Make each object's text in the JSON report here (see RecordEntry.json). */
+  readonly objectJson?: boolean;
 }
 
 export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
@@ -48,6 +51,7 @@ if (port) {
     try {
       const entries = parseFiles(msg.files);
       auditEntries(entries, data.options);
+      if (data.objectJson) for (const e of entries) if (e.audit?.object) e.json = objectJsonText(e.audit.object);
       let pages: PageWritten[] = [];
       if (data.pages) {
         render ??= createPageRenderer(data.pages.includesDir, data.pages.site);

@@ -1,11 +1,20 @@
-import type { AuditReport } from "../audit/types.js";
+import type { AuditReport, ObjectAudit } from "../audit/types.js";
 
 /**
  * The text of JSON.stringify(report, null, 2) + "\n", in pieces: the objects
  * one at a time, so a catalogue of a hundred thousand objects never has to be
  * one string (longer than V8 allows) or held whole in memory.
  */
-export function* reportJsonChunks(report: AuditReport): Generator<string> {
+/** One object's text in the report: its JSON.stringify(obj, null, 2) at the depth of the "objects" array. */
+export function objectJsonText(obj: ObjectAudit): string {
+  return indent(JSON.stringify(obj, null, 2), "    ");
+}
+
+/**
+ * The chunks; `textOf` gives an object's text (objectJsonText) when it was
+ * made already, on the thread that audited it.
+ */
+export function* reportJsonChunks(report: AuditReport, textOf?: (obj: ObjectAudit) => string | undefined): Generator<string> {
   const keys = Object.keys(report) as Array<keyof AuditReport>;
   yield "{";
   for (let k = 0; k < keys.length; k++) {
@@ -15,7 +24,8 @@ export function* reportJsonChunks(report: AuditReport): Generator<string> {
     if (key === "objects" && Array.isArray(value) && value.length > 0) {
       yield "[";
       for (let i = 0; i < value.length; i++) {
-        yield `${i === 0 ? "" : ","}\n    ${indent(JSON.stringify(value[i], null, 2), "    ")}`;
+        const obj = value[i] as ObjectAudit;
+        yield `${i === 0 ? "" : ","}\n    ${textOf?.(obj) ?? objectJsonText(obj)}`;
       }
       yield "\n  ]";
     } else {

@@ -7,6 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { generateCatalogue } from "../../bench/generate.mjs";
 import { editOnePublishedValue } from "../../bench/edit-record.mjs";
 import { listFiles } from "../site/helpers/html-scan.js";
+import { runAudit } from "../../src/audit/run.js";
+import { reportJsonChunks } from "../../src/report/json-report.js";
 
 /**
  * The compiled build with its worker threads (which the sources under the
@@ -80,5 +82,18 @@ describe("the compiled build on worker threads", () => {
     // the cache holds a blob file of audits beside each shard that has entries
     const store = readdirSync(cache).find((n) => n.startsWith("records-"))!;
     expect(readdirSync(path.join(cache, store)).some((n) => n.endsWith(".blobs"))).toBe(true);
+  });
+
+  it("checks on worker threads to the very JSON report that one thread gives, and leaves no spill folder", async () => {
+    const r = spawnSync(process.execPath, ["bin/steelyard.js", "check", records, "--json", "--draws", DRAWS], {
+      cwd: ROOT,
+      encoding: "utf8",
+      maxBuffer: 1 << 28,
+      env: { ...process.env, TMPDIR: childTmp },
+    });
+    expect(r.stderr).toBe("");
+    const want = [...reportJsonChunks(await runAudit(records, { draws: Number(DRAWS) }))].join("");
+    expect(r.stdout).toBe(want);
+    expect(readdirSync(childTmp).filter((n) => n.startsWith("steelyard-audits-"))).toEqual([]);
   });
 });
