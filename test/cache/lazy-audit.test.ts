@@ -3,7 +3,7 @@ import { serialize } from "node:v8";
 import { beforeAll, describe, expect, it } from "vitest";
 import { runAudit } from "../../src/audit/index.js";
 import type { AuditReport, ObjectAudit } from "../../src/audit/types.js";
-import { isOpened, lazyAudit, realAudit, storeAudit, summaryOf } from "../../src/cache/lazy-audit.js";
+import { auditJsonText, isOpened, lazyAudit, realAudit, storeAudit, summaryOf } from "../../src/cache/lazy-audit.js";
 
 /** A stand-in read from the cache must be indistinguishable from the audit it stands for, and stay unread while only its summary is asked. */
 
@@ -50,6 +50,25 @@ describe("an audit read lazily from the cache", () => {
       expect(realAudit(stand)).toEqual(obj);
     }
     expect(isOpened(report.objects[0])).toBeUndefined();
+  });
+
+  it("writes its JSON from a copy that is not kept, and reads rereadable bytes afresh each time", () => {
+    const obj = report.objects[1];
+    const stored = storeAudit(obj);
+    let reads = 0;
+    const stand = lazyAudit(
+      stored.summary,
+      () => {
+        reads++;
+        return stored.bytes;
+      },
+      true,
+    );
+    expect(auditJsonText(stand)).toBe(JSON.stringify(obj));
+    expect(auditJsonText(stand)).toBe(JSON.stringify(obj));
+    expect(isOpened(stand)).toBe(false);
+    expect(reads).toBe(2);
+    expect(auditJsonText(obj)).toBe(JSON.stringify(obj));
   });
 
   it("cannot be changed", () => {
