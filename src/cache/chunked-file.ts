@@ -36,17 +36,16 @@ export function readChunkedFile(file: string, kind: string): unknown[] | undefin
     let end = 0;
     let eof = false;
     // makes `n` bytes available from `start`; false at the end of the file
+    // a buffer once read from is never written again: deserialize() gives byte arrays that view
+    // its input, so the unread rest moves to a fresh buffer instead of to the front of this one
     const need = (n: number): boolean => {
       while (end - start < n && !eof) {
-        if (start > 0) {
-          buf.copy(buf, 0, start, end);
+        if (start > 0 || buf.length < n) {
+          const next = Buffer.allocUnsafe(Math.max(n, 1 << 20));
+          buf.copy(next, 0, start, end);
           end -= start;
           start = 0;
-        }
-        if (buf.length < n) {
-          const bigger = Buffer.alloc(Math.max(n, buf.length * 2));
-          buf.copy(bigger, 0, 0, end);
-          buf = bigger;
+          buf = next;
         }
         const got = readSync(fd, buf, end, buf.length - end, null);
         if (got === 0) eof = true;
@@ -60,10 +59,7 @@ export function readChunkedFile(file: string, kind: string): unknown[] | undefin
     while (need(4)) {
       const len = buf.readUInt32LE(start);
       if (!need(4 + len)) return undefined;
-      // from a copy: deserialize() gives byte arrays that view its input, and `buf` is reused
-      const own = Buffer.allocUnsafeSlow(len);
-      buf.copy(own, 0, start + 4, start + 4 + len);
-      const value = deserialize(own);
+      const value = deserialize(buf.subarray(start + 4, start + 4 + len));
       start += 4 + len;
       if (header === undefined) {
         header = value as Header;

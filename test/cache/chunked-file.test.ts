@@ -27,6 +27,19 @@ describe("chunked cache file", () => {
     expect(back[2]).toEqual([1, [2, [3]]]);
   });
 
+  it("gives back byte arrays intact after the reader has read on past them", () => {
+    const file = path.join(dir, "bytes.bin");
+    // about 6 MB of values, each holding bytes of its own, so that the reader refills many times
+    const values = Array.from({ length: 600 }, (_, i) => ({ i, bytes: new Uint8Array(10_000 + i).fill(i % 251) }));
+    writeChunkedFile(file, "test-bytes", values);
+    const back = readChunkedFile(file, "test-bytes") as Array<{ i: number; bytes: Uint8Array }>;
+    expect(back).toHaveLength(600);
+    for (const v of back) {
+      expect(v.bytes.length).toBe(10_000 + v.i);
+      expect(v.bytes.every((b) => b === v.i % 251)).toBe(true);
+    }
+  });
+
   it("reads values larger than its read buffer", () => {
     const file = path.join(dir, "large.bin");
     const big = "x".repeat(3 * 1024 * 1024);
