@@ -66,6 +66,11 @@ export function summariseProfile(profile) {
     modules.set(where, (modules.get(where) ?? 0) + ms);
     total += ms;
   }
+  return summary(functions, modules, total, idle);
+}
+
+/** The summary from self times per function and per module, largest first. */
+function summary(functions, modules, total, idle) {
   const sort = (a, b) => b.self_ms - a.self_ms;
   return {
     total_ms: total,
@@ -92,13 +97,7 @@ export function mergeSummaries(summaries) {
     }
     for (const m of s.modules) modules.set(m.module, (modules.get(m.module) ?? 0) + m.self_ms);
   }
-  const sort = (a, b) => b.self_ms - a.self_ms;
-  return {
-    total_ms: total,
-    idle_ms: idle,
-    functions: [...functions.values()].sort(sort),
-    modules: [...modules].map(([module, self_ms]) => ({ module, self_ms })).sort(sort),
-  };
+  return summary(functions, modules, total, idle);
 }
 
 function parse(argv) {

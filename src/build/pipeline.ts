@@ -1,8 +1,7 @@
-import { existsSync, lstatSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
+import { lstatSync, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
 import os, { availableParallelism } from "node:os";
 import path from "node:path";
-import { fileURLToPath } from "node:url";
-import { runBatches } from "../workers/batch-pool.js";
+import { compiledWorkerUrl, runBatches } from "../workers/batch-pool.js";
 import { DEFAULT_DRAWS, type RunOptions } from "../audit/audit-records.js";
 import { DEFAULT_THRESHOLDS } from "../audit/compare.js";
 import { runAudit } from "../audit/run.js";
@@ -126,9 +125,7 @@ function isFolder(dir: string): boolean {
 
 /** The compiled worker beside this module, or undefined when running from the TypeScript sources. */
 export function recordWorkerUrl(): URL | undefined {
-  const url = new URL("./record-worker.js", import.meta.url);
-  if (url.protocol !== "file:" || !fileURLToPath(import.meta.url).endsWith(".js")) return undefined;
-  return existsSync(fileURLToPath(url)) ? url : undefined;
+  return compiledWorkerUrl("record-worker.js", import.meta.url);
 }
 
 const BATCH = 16;

@@ -4,8 +4,11 @@ import { fileURLToPath } from "node:url";
 import { VERSION } from "../version.js";
 import { digest } from "./digest.js";
 
-/** Every file under `dir` (sorted, forward-slash relative paths) whose name passes `keep`. */
-function filesUnder(dir: string, keep: (name: string) => boolean): string[] {
+/**
+ * Every file under `dir` (sorted, forward-slash relative paths) whose name
+ * passes `keep`, outside the folders (by relative path) that `skipFolder` names.
+ */
+export function filesUnder(dir: string, keep: (name: string) => boolean, skipFolder: (rel: string) => boolean = () => false): string[] {
   const out: string[] = [];
   const walk = (abs: string, rel: string): void => {
     let entries;
@@ -16,8 +19,9 @@ function filesUnder(dir: string, keep: (name: string) => boolean): string[] {
     }
     for (const e of entries) {
       const r = rel === "" ? e.name : `${rel}/${e.name}`;
-      if (e.isDirectory()) walk(path.join(abs, e.name), r);
-      else if (e.isFile() && keep(e.name)) out.push(r);
+      if (e.isDirectory()) {
+        if (!skipFolder(r)) walk(path.join(abs, e.name), r);
+      } else if (e.isFile() && keep(e.name)) out.push(r);
     }
   };
   walk(dir, "");

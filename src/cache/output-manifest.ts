@@ -1,6 +1,7 @@
-import { readdirSync, rmdirSync, rmSync, statSync } from "node:fs";
+import { rmdirSync, rmSync, statSync } from "node:fs";
 import path from "node:path";
 import { readChunkedFile, writeChunkedFile } from "./chunked-file.js";
+import { filesUnder } from "./fingerprint.js";
 import type { Segment } from "../site/json-stream.js";
 
 /**
@@ -86,37 +87,17 @@ export class OutputManifest {
    * only checked for being untouched.
    */
   trackRest(skipTop: string): void {
-    const walk = (abs: string, rel: string): void => {
-      let entries;
-      try {
-        entries = readdirSync(abs, { withFileTypes: true });
-      } catch {
-        return;
-      }
-      for (const d of entries) {
-        const r = rel === "" ? d.name : `${rel}/${d.name}`;
-        if (rel === "" && d.name === skipTop) continue;
-        const full = path.join(abs, d.name);
-        if (d.isDirectory()) walk(full, r);
-        else if (d.isFile() && !this.after.has(r)) {
-          const info = statSync(full);
-          this.after.set(r, { path: r, key: "", size: info.size, mtimeMs: info.mtimeMs });
-        }
-      }
-    };
-    walk(this.outDir, "");
+    for (const r of filesUnder(this.outDir, () => true, (rel) => rel === skipTop)) {
+      if (this.after.has(r)) continue;
+      const info = statSync(path.join(this.outDir, ...r.split("/")));
+      this.after.set(r, { path: r, key: "", size: info.size, mtimeMs: info.mtimeMs });
+    }
   }
 
   /** True when `relPath` was made from `key` last time and is untouched since; it is then kept as it is. */
   reuse(relPath: string, key: string): boolean {
     const e = this.before.get(relPath);
-    if (!e || e.key !== key) return false;
-    try {
-      const info = statSync(path.join(this.outDir, ...relPath.split("/")));
-      if (!info.isFile() || info.size !== e.size || info.mtimeMs !== e.mtimeMs) return false;
-    } catch {
-      return false;
-    }
+    if (!e || e.key !== key || !sameFile(path.join(this.outDir, ...relPath.split("/")), e.size, e.mtimeMs)) return false;
     this.after.set(relPath, e);
     return true;
   }

@@ -57,6 +57,24 @@ interface Series {
   readonly cls: string;
 }
 
+/**
+ * The value range of a chart: the finite values' extent (0 to 1 when there
+ * are none), widened when it is a single point, then by `margin` of its span
+ * on each side.
+ */
+function paddedRange(values: readonly number[], margin: number): [number, number] {
+  const finite = values.filter(Number.isFinite);
+  let lo = finite.length > 0 ? Math.min(...finite) : 0;
+  let hi = finite.length > 0 ? Math.max(...finite) : 1;
+  if (!(hi > lo)) {
+    const pad = Math.abs(lo) * 0.05 || 1;
+    lo -= pad;
+    hi += pad;
+  }
+  const span = hi - lo;
+  return [lo - span * margin, hi + span * margin];
+}
+
 function niceStep(span: number): number {
   const raw = span / 4;
   const p = 10 ** Math.floor(Math.log10(raw));
@@ -124,17 +142,7 @@ export function comparisonChart(result: ResultAudit, comparison: ComparisonAudit
       cls: "series-monte-carlo",
     });
   }
-  const ends = series.flatMap((s) => [s.low, s.high, s.value]).filter(Number.isFinite);
-  let lo = Math.min(...ends);
-  let hi = Math.max(...ends);
-  if (!(hi > lo)) {
-    const pad = Math.abs(lo) * 0.05 || 1;
-    lo -= pad;
-    hi += pad;
-  }
-  const span = hi - lo;
-  lo -= span * 0.12;
-  hi += span * 0.12;
+  const [lo, hi] = paddedRange(series.flatMap((s) => [s.low, s.high, s.value]), 0.12);
 
   const labelWidth = 100;
   const plotWidth = 240;
@@ -212,17 +220,7 @@ export function forestChart(rows: readonly ForestRow[], band: ForestBand | null,
   const shown = rows.filter((r) => Number.isFinite(r.value));
   const ends = shown.flatMap((r) => [r.low, r.high, r.value]);
   if (band) ends.push(band.low, band.high, band.value);
-  const finite = ends.filter(Number.isFinite);
-  let lo = finite.length > 0 ? Math.min(...finite) : 0;
-  let hi = finite.length > 0 ? Math.max(...finite) : 1;
-  if (!(hi > lo)) {
-    const pad = Math.abs(lo) * 0.05 || 1;
-    lo -= pad;
-    hi += pad;
-  }
-  const span = hi - lo;
-  lo -= span * 0.08;
-  hi += span * 0.08;
+  const [lo, hi] = paddedRange(ends, 0.08);
 
   const labelWidth = 150;
   const plotWidth = 240;

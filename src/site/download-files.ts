@@ -1,10 +1,10 @@
-import { closeSync, fstatSync, mkdirSync, openSync, writeSync } from "node:fs";
 import path from "node:path";
 import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
 import { DOWNLOADS } from "./downloads.js";
 import { writeJsonStreamed, type StreamedFile } from "./json-stream.js";
+import { writeTextFile } from "./page-writer.js";
 import { auditJsonText } from "../cache/lazy-audit.js";
 
 /** Where a build with a cache finds the pieces of the full audit JSON it may copy from the last one. */
@@ -29,20 +29,6 @@ const STREAMED: Readonly<
   },
 };
 
-function writeText(file: string, text: string): { size: number; mtimeMs: number } {
-  mkdirSync(path.dirname(file), { recursive: true });
-  const fd = openSync(file, "w");
-  try {
-    const bytes = Buffer.from(text, "utf8");
-    let off = 0;
-    while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
-    const info = fstatSync(fd);
-    return { size: info.size, mtimeMs: info.mtimeMs };
-  } finally {
-    closeSync(fd);
-  }
-}
-
 /**
  * Writes every download into the site. With a manifest and the key of the
  * report (see the build pipeline), a download whose report is unchanged and
@@ -63,7 +49,7 @@ export function writeDownloads(
       const info = streamed(report, file, d.path, cache);
       if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs, cache.objectKeys ? info.segments : undefined);
     } else {
-      const info = writeText(file, d.render(report));
+      const info = writeTextFile(file, d.render(report));
       if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs);
     }
     written++;

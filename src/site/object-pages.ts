@@ -1,7 +1,5 @@
-import { existsSync } from "node:fs";
 import { availableParallelism } from "node:os";
-import { fileURLToPath } from "node:url";
-import { runBatches } from "../workers/batch-pool.js";
+import { compiledWorkerUrl, runBatches } from "../workers/batch-pool.js";
 import type { ObjectAudit } from "../audit/types.js";
 import { realAudit } from "../cache/lazy-audit.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
@@ -50,9 +48,7 @@ export interface ObjectPagesOutcome {
 
 /** The compiled worker beside this module, or undefined when running from the TypeScript sources. */
 export function pageWorkerUrl(): URL | undefined {
-  const url = new URL("./object-page-worker.js", import.meta.url);
-  if (url.protocol !== "file:" || !fileURLToPath(import.meta.url).endsWith(".js")) return undefined;
-  return existsSync(fileURLToPath(url)) ? url : undefined;
+  return compiledWorkerUrl("object-page-worker.js", import.meta.url);
 }
 
 const BATCH = 32;

@@ -15,19 +15,22 @@ export function objectPageFile(outDir: string, id: string): string {
   return path.join(outDir, objectPath(id), "index.html");
 }
 
-/** Renders one page and writes it at once (synchronously: a page is small, and waiting on the thread pool per file costs more). */
-export function renderAndWrite(render: PageRenderer, input: PageInput, outDir: string): WrittenPage {
-  const html = render(input);
-  const file = objectPageFile(outDir, input.obj.id);
+/** Writes text to a file (its folder made if need be) and gives the size and time it then has, for the output manifest. */
+export function writeTextFile(file: string, text: string): { size: number; mtimeMs: number } {
   mkdirSync(path.dirname(file), { recursive: true });
   const fd = openSync(file, "w");
   try {
-    const bytes = Buffer.from(html, "utf8");
+    const bytes = Buffer.from(text, "utf8");
     let off = 0;
     while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
     const info = fstatSync(fd);
-    return { id: input.obj.id, size: info.size, mtimeMs: info.mtimeMs };
+    return { size: info.size, mtimeMs: info.mtimeMs };
   } finally {
     closeSync(fd);
   }
+}
+
+/** Renders one page and writes it at once (synchronously: a page is small, and waiting on the thread pool per file costs more). */
+export function renderAndWrite(render: PageRenderer, input: PageInput, outDir: string): WrittenPage {
+  return { id: input.obj.id, ...writeTextFile(objectPageFile(outDir, input.obj.id), render(input)) };
 }

@@ -1,7 +1,6 @@
-import { existsSync } from "node:fs";
 import { availableParallelism } from "node:os";
-import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
+import { compiledWorkerUrl } from "../workers/batch-pool.js";
 import type { MonteCarloJob } from "./monte-carlo-job.js";
 import type { MonteCarloRun } from "./monte-carlo.js";
 import type { WorkerReply, WorkerRequest } from "./monte-carlo-worker.js";
@@ -28,9 +27,7 @@ export interface PoolOptions {
 
 /** The compiled worker beside this module, or undefined when there is none (running from the TypeScript sources). */
 export function defaultWorkerUrl(): URL | undefined {
-  const url = new URL("./monte-carlo-worker.js", import.meta.url);
-  if (url.protocol !== "file:" || !fileURLToPath(import.meta.url).endsWith(".js")) return undefined;
-  return existsSync(fileURLToPath(url)) ? url : undefined;
+  return compiledWorkerUrl("monte-carlo-worker.js", import.meta.url);
 }
 
 export function defaultWorkerCount(): number {

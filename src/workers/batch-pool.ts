@@ -1,4 +1,17 @@
+import { existsSync } from "node:fs";
+import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
+
+/**
+ * The compiled worker script `name` beside the module at `moduleUrl`, or
+ * undefined when that module runs from the TypeScript sources (as under the
+ * test runner) or the script is not there.
+ */
+export function compiledWorkerUrl(name: string, moduleUrl: string): URL | undefined {
+  const url = new URL(`./${name}`, moduleUrl);
+  if (url.protocol !== "file:" || !fileURLToPath(moduleUrl).endsWith(".js")) return undefined;
+  return existsSync(fileURLToPath(url)) ? url : undefined;
+}
 
 /** A worker's answer to one batch: success carries whatever the caller expects, failure a message. */
 export type BatchReply = { readonly kind: "failed"; readonly message: string } | { readonly kind: string };
