@@ -4,9 +4,10 @@ import { votableRows, type VotableRow } from "../export/votable.js";
 import { getMethod } from "../methods/index.js";
 import { objectBibtex } from "./bibtex.js";
 import { csvLine } from "./csv.js";
-import { homeRow, type HomeRow } from "./home-view.js";
+import { homeRowFor, type HomeRow } from "./home-view.js";
+import { headlineOf } from "./headline.js";
 import { objectFlags, type FlagView } from "./problems-view.js";
-import { TABLE_COLUMNS, tableRow } from "./table.js";
+import { TABLE_COLUMNS, tableRowFor } from "./table.js";
 
 /**
  * What one object contributes to the pages and downloads that list every
@@ -42,13 +43,15 @@ export function indentedJsonRow(row: unknown): string {
 }
 
 export function makeFragments(obj: ObjectAudit): ObjectFragments {
-  const row = tableRow(obj);
+  // the headline decides both rows: found once
+  const h = headlineOf(obj);
+  const row = h ? tableRowFor(obj, h) : undefined;
   return {
     csv: row ? csvLine(TABLE_COLUMNS, row) : null,
     json: row ? indentedJsonRow(row) : null,
     bib: objectBibtex(obj),
     votable: votableRows(obj, obj.combined ?? combineObject(obj)),
-    home: homeRow(obj, getMethod) ?? null,
+    home: h && row ? homeRowFor(obj, h, row, getMethod) : null,
     flags: objectFlags(obj),
   };
 }

@@ -1,12 +1,12 @@
 import type { AuditReport, ObjectAudit, Status } from "../audit/types.js";
 import { STATUSES } from "../audit/types.js";
 import { formatByKind, formatWithSigma, formatZ, withUnit } from "./display.js";
-import { headlineCombined, headlineOf } from "./headline.js";
+import { headlineCombined, headlineOf, type Headline } from "./headline.js";
 import { combinedValueText } from "./combined-view.js";
 import type { MethodLookup } from "./object-view.js";
 import { plainName } from "./object-view.js";
 import { statusView, type StatusView } from "./status.js";
-import { tableRow, type TableRow } from "./table.js";
+import { tableRowFor, type TableRow } from "./table.js";
 import { displayScale, unitSymbol } from "./unit-display.js";
 
 /** One row of the table on the home page: the download row plus its printed forms and sort keys. */
@@ -35,9 +35,12 @@ export interface StatusCount {
 }
 
 export function homeRow(obj: ObjectAudit, lookup: MethodLookup): HomeRow | undefined {
-  const row = tableRow(obj);
   const h = headlineOf(obj);
-  if (!row || !h) return undefined;
+  return h ? homeRowFor(obj, h, tableRowFor(obj, h), lookup) : undefined;
+}
+
+/** The home-table row from the object's headline and download row (headlineOf, tableRowFor), made once for both. */
+export function homeRowFor(obj: ObjectAudit, h: Headline, row: TableRow, lookup: MethodLookup): HomeRow {
   const unit = unitSymbol(row.unit);
   const r = h.result;
   const scale = displayScale(r);

@@ -1,6 +1,6 @@
 import type { AuditReport, ObjectAudit, Status } from "../audit/types.js";
 import { isSlug } from "../records/slug.js";
-import { headlineOf } from "./headline.js";
+import { headlineOf, type Headline } from "./headline.js";
 import { displayScale } from "./unit-display.js";
 
 /**
@@ -104,7 +104,11 @@ function combinedColumns(obj: ObjectAudit, result: string, scale: number): Combi
 
 export function tableRow(obj: ObjectAudit): TableRow | undefined {
   const h = headlineOf(obj);
-  if (!h) return undefined;
+  return h ? tableRowFor(obj, h) : undefined;
+}
+
+/** The row of an object from its headline (headlineOf), for callers that need the headline too. */
+export function tableRowFor(obj: ObjectAudit, h: Headline): TableRow {
   const { measurement: m, result: r, comparison: c } = h;
   const scale = displayScale(r);
   return {
