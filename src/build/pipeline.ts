@@ -159,6 +159,8 @@ export interface FolderKeys {
   readonly shared: string;
   /** Per file, its key, or the entry made without parsing it (over the size limit, unreadable). */
   readonly keys: ReadonlyArray<string | RecordEntry>;
+  /** Per file with a key, the bytes it was made from (kept so that a file to audit is not read twice). */
+  readonly bytes: ReadonlyArray<Buffer | undefined>;
   /** The key of the whole report; undefined when a file could not be read. */
   readonly reportKey?: string;
 }
@@ -185,12 +187,14 @@ export async function keyRecordFolder(recordsDir: string, audit: RunOptions): Pr
     return undefined;
   }
   const shared = settingsKey(audit);
+  const bytes: Array<Buffer | undefined> = [];
   const keys = files.map((file) => {
     const r = readKeyed(path.join(dir, ...file.split("/")), file, shared);
+    bytes.push("bytes" in r ? r.bytes : undefined);
     return "bytes" in r ? r.key : r;
   });
   const flat = keys.map((k) => (typeof k === "string" ? k : k.key));
-  const out = { dir, files, shared, keys };
+  const out = { dir, files, shared, keys, bytes };
   return flat.includes("") ? out : { ...out, reportKey: digest([shared, ...files.flatMap((f, i) => [f, flat[i]])]) };
 }
 
@@ -255,9 +259,8 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
       reused++;
       return;
     }
-    const r = readKeyed(path.join(dir, ...file.split("/")), file, shared);
-    if ("bytes" in r) toAudit.push({ file, key: r.key, bytes: r.bytes });
-    else slots[i] = r;
+    // a file with a key was read whole when it was keyed
+    toAudit.push({ file, key: known, bytes: folder.bytes[i]! });
   });
 
   // parse and audit the rest, writing their pages as they come
