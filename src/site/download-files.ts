@@ -2,10 +2,9 @@ import path from "node:path";
 import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
-import { DOWNLOADS } from "./downloads.js";
+import { AUDIT_JSON_STREAM, DOWNLOADS } from "./downloads.js";
 import { writeJsonStreamed, type StreamedFile } from "./json-stream.js";
 import { writeTextFile } from "./page-writer.js";
-import { auditJsonText } from "../cache/lazy-audit.js";
 
 /** Where a build with a cache finds the pieces of the full audit JSON it may copy from the last one. */
 interface StreamCache {
@@ -21,8 +20,9 @@ const STREAMED: Readonly<
   audit_json: (report, file, relPath, cache) => {
     const keys = cache?.objectKeys;
     const segments = keys ? cache.manifest.previousSegments(relPath) : undefined;
-    return writeJsonStreamed(file, report as unknown as Record<string, unknown>, new Set(["objects"]), {
-      textOf: (item) => auditJsonText(item as ObjectAudit),
+    return writeJsonStreamed(file, report as unknown as Record<string, unknown>, AUDIT_JSON_STREAM.streamed, {
+      textOf: AUDIT_JSON_STREAM.textOf,
+      padTo: AUDIT_JSON_STREAM.padTo,
       ...(keys ? { keyOf: (item: unknown) => keys.get(item as ObjectAudit) } : {}),
       ...(segments ? { reuse: { file, segments } } : {}),
     });

@@ -1,9 +1,9 @@
-import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
-import { writeJsonStreamed } from "../../src/site/json-stream.js";
+import { jsonStreamedText, writeJsonStreamed } from "../../src/site/json-stream.js";
 
 const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-json-stream-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -69,5 +69,85 @@ describe("streamed JSON that copies unchanged elements from the file it replaces
     });
     expect(out.reused).toBe(0);
     expect(readFileSync(file, "utf8")).toBe(JSON.stringify(value) + "\n");
+  });
+});
+
+describe("padded streamed JSON, updated in place where it can be", () => {
+  const keyOf = (item: unknown) => (item as { id?: string }).id;
+  const PAD = 64;
+  const items = (n: number) => Array.from({ length: n }, (_, i) => ({ id: `k${i}`, text: "σ ü ".repeat(i % 30), v: i / 3 }));
+
+  it("pads each element to a multiple of the given bytes and keeps the value of JSON.stringify", () => {
+    const file = path.join(dir, "padded.json");
+    fc.assert(
+      fc.property(fc.array(fc.jsonValue(), { maxLength: 20 }), fc.integer({ min: 1, max: 300 }), fc.jsonValue(), (list, padTo, head) => {
+        const value = { head, objects: list };
+        const out = writeJsonStreamed(file, value, new Set(["objects"]), { padTo });
+        const text = readFileSync(file, "utf8");
+        expect(JSON.stringify(JSON.parse(text))).toBe(JSON.stringify(value));
+        expect(text).toBe(jsonStreamedText(value, new Set(["objects"]), { padTo }));
+        expect(out.size).toBe(Buffer.byteLength(text));
+      }),
+      { numRuns: 200 },
+    );
+    // segments cover element and padding, in whole multiples
+    const out = writeJsonStreamed(file, { objects: items(50) }, new Set(["objects"]), { padTo: PAD, keyOf });
+    for (const [, , length] of out.segments) expect(length % PAD).toBe(0);
+  });
+
+  it("writes only the changed element when the others keep their place, and the file is the one a fresh write gives", () => {
+    const file = path.join(dir, "in-place.json");
+    const first = writeJsonStreamed(file, { head: 1, objects: items(2000) }, new Set(["objects"]), { padTo: PAD, keyOf });
+    const inode = statSync(file).ino;
+    const next = items(2000);
+    next[700] = { id: "k700-edited", text: next[700].text, v: 700.5 / 3 };
+    const value = { head: 2, objects: next };
+    const second = writeJsonStreamed(file, value, new Set(["objects"]), { padTo: PAD, keyOf, reuse: { file, segments: first.segments } });
+    expect(second.inPlace).toBe(true);
+    expect(second.reused).toBe(1999);
+    expect(statSync(file).ino).toBe(inode);
+    expect(readFileSync(file, "utf8")).toBe(jsonStreamedText(value, new Set(["objects"]), { padTo: PAD }));
+
+    // an element that outgrows its padding moves the rest: the file is written afresh beside it
+    next[10] = { id: "k10-longer", text: "x".repeat(500), v: 0 };
+    const third = writeJsonStreamed(file, { head: 2, objects: next }, new Set(["objects"]), { padTo: PAD, keyOf, reuse: { file, segments: second.segments } });
+    expect(third.inPlace).toBe(false);
+    expect(third.reused).toBe(1999);
+    expect(readFileSync(file, "utf8")).toBe(jsonStreamedText({ head: 2, objects: next }, new Set(["objects"]), { padTo: PAD }));
+  });
+
+  it("gives the bytes of a fresh write after any series of edits, in place or not", () => {
+    const file = path.join(dir, "edits.json");
+    const edit = fc.oneof(
+      fc.record({ kind: fc.constant("change" as const), at: fc.nat(), text: fc.string({ maxLength: 40 }) }),
+      fc.record({ kind: fc.constant("remove" as const), at: fc.nat() }),
+      fc.record({ kind: fc.constant("add" as const), at: fc.nat(), text: fc.string({ maxLength: 40 }) }),
+      fc.record({ kind: fc.constant("head" as const), text: fc.string({ maxLength: 6 }) }),
+    );
+    let serial = 0;
+    let inPlace = 0;
+    fc.assert(
+      fc.property(fc.array(edit, { maxLength: 8 }), fc.integer({ min: 1, max: 128 }), (edits, padTo) => {
+        let list: Array<{ id: string; text: string }> = Array.from({ length: 12 }, (_, i) => ({ id: `s${serial}-${i}`, text: `t${i}` }));
+        let head = "h";
+        let out = writeJsonStreamed(file, { head, objects: list }, new Set(["objects"]), { padTo, keyOf });
+        for (const e of edits) {
+          list = [...list];
+          const at = list.length === 0 ? 0 : ("at" in e ? e.at % list.length : 0);
+          if (e.kind === "change" && list.length > 0) list[at] = { id: `s${serial}-c${++serial}`, text: e.text };
+          if (e.kind === "remove" && list.length > 0) list.splice(at, 1);
+          if (e.kind === "add") list.splice(at, 0, { id: `s${serial}-a${++serial}`, text: e.text });
+          if (e.kind === "head") head = e.text;
+          const value = { head, objects: list };
+          out = writeJsonStreamed(file, value, new Set(["objects"]), { padTo, keyOf, reuse: { file, segments: out.segments } });
+          expect(readFileSync(file, "utf8")).toBe(jsonStreamedText(value, new Set(["objects"]), { padTo }));
+          expect(out.size).toBe(statSync(file).size);
+          if (out.inPlace) inPlace++;
+        }
+      }),
+      { numRuns: 300 },
+    );
+    // both ways were taken
+    expect(inPlace).toBeGreaterThan(50);
   });
 });
