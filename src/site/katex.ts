@@ -100,25 +100,51 @@ function learnShape(skeleton: string, runs: readonly string[], html: string, dis
   return { kind: "splice", template: template.value };
 }
 
-export function renderTex(tex: string, displayMode = false): string {
+/**
+ * One typeset equation: the template of its shape with this equation's
+ * numbers (put together by `splice`), or the whole string where the shape is
+ * new or cannot be spliced. Either gives the same bytes as renderTex.
+ */
+export type TypesetEquation =
+  | { readonly kind: "splice"; readonly template: SpliceTemplate; readonly runs: readonly string[] }
+  | { readonly kind: "whole"; readonly html: string };
+
+export function typesetEquation(tex: string, displayMode = false): TypesetEquation {
   const { skeleton, runs } = texSkeleton(tex);
   const key = (displayMode ? "D" : "I") + skeleton;
   const shape = shapes.get(key);
   if (shape !== undefined) {
-    if (shape.kind === "splice") return splice(shape.template, runs);
+    if (shape.kind === "splice") return { kind: "splice", template: shape.template, runs };
     const memoKey = (displayMode ? "D" : "I") + tex;
     const hit = directMemo.get(memoKey);
-    if (hit !== undefined) return hit;
+    if (hit !== undefined) return { kind: "whole", html: hit };
     const html = typesetOrThrow(tex, displayMode);
     remember(directMemo, DIRECT_MEMO_LIMIT, memoKey, html);
-    return html;
+    return { kind: "whole", html };
   }
   // A new shape: the equation itself first, so that bad TeX fails with its own message.
   const html = typesetOrThrow(tex, displayMode);
   const learned: Shape = runs.length === 0 ? { kind: "splice", template: { pieces: [html], slots: [] } } : learnShape(skeleton, runs, html, displayMode);
   remember(shapes, SHAPE_LIMIT, key, learned);
   if (learned.kind === "direct") remember(directMemo, DIRECT_MEMO_LIMIT, (displayMode ? "D" : "I") + tex, html);
-  return html;
+  return { kind: "whole", html };
+}
+
+export function renderTex(tex: string, displayMode = false): string {
+  const t = typesetEquation(tex, displayMode);
+  return t.kind === "whole" ? t.html : splice(t.template, t.runs);
+}
+
+const encodedPieces = new WeakMap<SpliceTemplate, readonly Buffer[]>();
+
+/** The pieces of a template as UTF-8, encoded once per template. */
+export function encodedPiecesOf(template: SpliceTemplate): readonly Buffer[] {
+  let out = encodedPieces.get(template);
+  if (out === undefined) {
+    out = template.pieces.map((p) => Buffer.from(p, "utf8"));
+    encodedPieces.set(template, out);
+  }
+  return out;
 }
 
 /** How many times KaTeX itself ran since the process started (three times for each new shape with numbers). */

@@ -200,7 +200,12 @@ function inputsInMethodOrder(inputs: InputAudit[], method: MethodDefinition | un
   return [...inputs].sort((a, b) => rank(a) - rank(b) || (a.field < b.field ? -1 : a.field > b.field ? 1 : 0));
 }
 
-function measurementView(m: MeasurementAudit, lookup: MethodLookup): MeasurementView {
+/** Markup for a display equation: the typeset string, or a stand-in that a page writer swaps for it (see page-bytes.ts). */
+export type DisplayTex = (tex: string) => string;
+
+const typesetDisplay: DisplayTex = (tex) => renderTex(tex, true);
+
+function measurementView(m: MeasurementAudit, lookup: MethodLookup, displayTex: DisplayTex): MeasurementView {
   const method = lookup(m.method);
   const out: { -readonly [K in keyof MeasurementView]: MeasurementView[K] } = {
     key: m.key,
@@ -215,8 +220,8 @@ function measurementView(m: MeasurementAudit, lookup: MethodLookup): Measurement
     results: Object.values(m.results).map((r) => resultView(r, m, method)),
     equations: m.equations.map((eq) => ({
       results: eq.results.map(plainName).join(", "),
-      generalHtml: renderTex(eq.general, true),
-      substitutedHtml: eq.substituted ? renderTex(eq.substituted, true) : "",
+      generalHtml: displayTex(eq.general),
+      substitutedHtml: eq.substituted ? displayTex(eq.substituted) : "",
     })),
     seed: m.seed,
   };
@@ -224,14 +229,19 @@ function measurementView(m: MeasurementAudit, lookup: MethodLookup): Measurement
   return out;
 }
 
-export function objectPageView(obj: ObjectAudit, lookup: MethodLookup, problems: readonly Problem[] = []): ObjectPageView {
+export function objectPageView(
+  obj: ObjectAudit,
+  lookup: MethodLookup,
+  problems: readonly Problem[] = [],
+  displayTex: DisplayTex = typesetDisplay,
+): ObjectPageView {
   const out: { -readonly [K in keyof ObjectPageView]: ObjectPageView[K] } = {
     id: obj.id,
     name: obj.name,
     aliases: obj.aliases,
     file: obj.file,
     status: statusView(obj.status),
-    measurements: obj.measurements.map((m) => measurementView(m, lookup)),
+    measurements: obj.measurements.map((m) => measurementView(m, lookup, displayTex)),
     problems,
     referenceValues: referenceValuesView(obj),
   };

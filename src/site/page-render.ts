@@ -3,7 +3,8 @@ import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import { METHODS } from "../methods/index.js";
 import type { Problem } from "../problem.js";
 import { underBase } from "./base-path.js";
-import { objectPageView, type MethodLookup } from "./object-view.js";
+import { objectPageView, type DisplayTex, type MethodLookup } from "./object-view.js";
+import { PageBytes } from "./page-bytes.js";
 
 /**
  * Renders one object's audit page: object-page.njk inside base.njk, through
@@ -37,10 +38,19 @@ export interface PageInput {
   readonly problems: readonly Problem[];
 }
 
-export type PageRenderer = (input: PageInput) => string;
+export interface PageRenderer {
+  /** The page as text. */
+  text(input: PageInput): string;
+  /**
+   * The page as UTF-8, the bytes of Buffer.from(text(input)), with its display
+   * equations copied in from their encoded templates (see page-bytes.ts); a
+   * view that the next call may overwrite.
+   */
+  bytes(input: PageInput): Uint8Array;
+}
 
-/** A renderer with its own Nunjucks environment over `includesDir`. */
-export function createPageRenderer(includesDir: string, site: PageSite): PageRenderer {
+/** A renderer with its own Nunjucks environment over `includesDir` (and its own page assembler, unless given one). */
+export function createPageRenderer(includesDir: string, site: PageSite, assembler: PageBytes = new PageBytes()): PageRenderer {
   const env = new nunjucks.Environment(new nunjucks.FileSystemLoader(includesDir), { ...NUNJUCKS_OPTIONS });
   const body = env.getTemplate("object-page.njk", true);
   const layout = env.getTemplate("base.njk", true);
@@ -48,17 +58,26 @@ export function createPageRenderer(includesDir: string, site: PageSite): PageRen
   const lookup: MethodLookup = (id) => byId.get(id);
   const settings = site.settings;
   const base = site.basePath;
-  return ({ obj, problems }) => {
+  const deferred: DisplayTex = (tex) => assembler.displayEquation(tex);
+  const render = ({ obj, problems }: PageInput, displayTex?: DisplayTex): string => {
     const steelyard = {
       basePath: base,
       version: site.version,
       settings,
       ...(site.hasChanges ? { changes: true } : {}),
-      objectPage: (o: ObjectAudit) => objectPageView(o, lookup, problems),
+      objectPage: (o: ObjectAudit) => objectPageView(o, lookup, problems, displayTex),
       link: (sitePath: string) => underBase(base, String(sitePath)),
     };
     const vars = { steelyard, obj, katex: true, pageKind: "object" };
     const content = body.render(vars);
     return layout.render({ ...vars, content });
+  };
+  return {
+    text: (input) => render(input),
+    bytes: (input) => {
+      assembler.begin();
+      // a page whose text happens to hold a placeholder is rendered as text instead
+      return assembler.assemble(render(input, deferred)) ?? Buffer.from(render(input), "utf8");
+    },
   };
 }

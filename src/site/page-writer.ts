@@ -17,10 +17,14 @@ export function objectPageFile(outDir: string, id: string): string {
 
 /** Writes text to a file (its folder made if need be) and gives the size and time it then has, for the output manifest. */
 export function writeTextFile(file: string, text: string): { size: number; mtimeMs: number } {
+  return writeBytesFile(file, Buffer.from(text, "utf8"));
+}
+
+/** As writeTextFile, for bytes. */
+export function writeBytesFile(file: string, bytes: Uint8Array): { size: number; mtimeMs: number } {
   mkdirSync(path.dirname(file), { recursive: true });
   const fd = openSync(file, "w");
   try {
-    const bytes = Buffer.from(text, "utf8");
     let off = 0;
     while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
     const info = fstatSync(fd);
@@ -32,5 +36,5 @@ export function writeTextFile(file: string, text: string): { size: number; mtime
 
 /** Renders one page and writes it at once (synchronously: a page is small, and waiting on the thread pool per file costs more). */
 export function renderAndWrite(render: PageRenderer, input: PageInput, outDir: string): WrittenPage {
-  return { id: input.obj.id, ...writeTextFile(objectPageFile(outDir, input.obj.id), render(input)) };
+  return { id: input.obj.id, ...writeBytesFile(objectPageFile(outDir, input.obj.id), render.bytes(input)) };
 }
