@@ -114,9 +114,13 @@ const MAX_DIGITS = 17;
 
 /** `x` rounded to a multiple of 10^place and written with the decimals that place needs, in units of 10^scale. */
 function atPlace(x: number, place: number, scale: number): string {
-  // Shift by the power of ten through the decimal text, so that the shift itself adds no rounding.
-  const [m, e] = Math.abs(x).toExponential(16).split("e");
-  const shifted = Number(`${m}e${Number(e) - scale}`);
+  // Shift by the power of ten through the decimal text, so that the shift itself adds no rounding;
+  // with no shift that text (17 significant digits) reads back as |x| itself.
+  let shifted = Math.abs(x);
+  if (scale !== 0) {
+    const [m, e] = shifted.toExponential(16).split("e");
+    shifted = Number(`${m}e${Number(e) - scale}`);
+  }
   let text: string;
   if (place > scale) {
     const step = Math.pow(10, place - scale);

@@ -11,7 +11,18 @@ import { displayScale } from "./unit-display.js";
  * apart, never colour alone.
  */
 
-const n = (x: number): string => (Math.round(x * 10) / 10).toFixed(1).replace(/\.0$/, "");
+/**
+ * A coordinate to one decimal, without a trailing ".0": the text of
+ * (Math.round(10x) / 10).toFixed(1) less ".0", written from the integer of tenths.
+ */
+const n = (x: number): string => {
+  const tenths = Math.round(x * 10);
+  if (!(Math.abs(tenths) < 1e15)) return (tenths / 10).toFixed(1).replace(/\.0$/, "");
+  const whole = Math.trunc(tenths / 10);
+  const rest = Math.abs(tenths - whole * 10);
+  const sign = tenths < 0 && whole === 0 ? "-" : "";
+  return rest === 0 ? `${sign}${whole === 0 ? 0 : whole}` : `${sign}${whole}.${rest}`;
+};
 
 /** Horizontal bars: each source's share of the first-order variance, largest first. */
 export function budgetChart(entries: readonly BudgetEntry[], idPrefix: string, resultLabel: string): string {
