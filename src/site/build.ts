@@ -189,6 +189,8 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
   }
 
   const previous = options.compareTo !== undefined ? readPreviousAudit(options.compareTo) : undefined;
+  // Eleventy's modules load while the workers audit (this thread waits on them then); renderSite imports the same module
+  import("@11ty/eleventy").catch(() => undefined);
   const run = await runPipeline(
     options.recordsDir,
     {
