@@ -5,9 +5,18 @@ import type { AuditReport, ObjectAudit } from "../audit/types.js";
  * one at a time, so a catalogue of a hundred thousand objects never has to be
  * one string (longer than V8 allows) or held whole in memory.
  */
-/** One object's text in the report: its JSON.stringify(obj, null, 2) at the depth of the "objects" array. */
+const WRAP_HEAD = '{\n  "objects": [\n    ';
+const WRAP_TAIL = "\n  ]\n}";
+
+/**
+ * One object's text in the report: its JSON.stringify(obj, null, 2) at the
+ * depth of the "objects" array, every line after the first four spaces in.
+ * JSON.stringify indents it so itself when it sits there, so the text is cut
+ * out of { "objects": [obj] } stringified: one pass, no second one to indent.
+ */
 export function objectJsonText(obj: ObjectAudit): string {
-  return indent(JSON.stringify(obj, null, 2), "    ");
+  const text = JSON.stringify({ objects: [obj] }, null, 2);
+  return text.slice(WRAP_HEAD.length, text.length - WRAP_TAIL.length);
 }
 
 /**
