@@ -72,6 +72,8 @@ export interface PipelineOptions {
   readonly minFilesForWorkers?: number;
   /** Have the workers make each object's text in the JSON report (PipelineOutcome.objectJson). */
   readonly objectJson?: boolean;
+  /** Called with the entries audited in this run as they come in (from the workers, batch by batch, while they go on). */
+  readonly onAudited?: (entries: readonly RecordEntry[]) => void;
 }
 
 export interface PipelineStats {
@@ -301,12 +303,14 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     await auditOnWorkers(url, Math.min(workers, Math.ceil(toAudit.length / BATCH)), data, toAudit, (entries, done) => {
       for (const e of entries) slots[index.get(e.file)!] = e;
       for (const p of done) written.set(p.id, p);
+      options.onAudited?.(entries);
     });
   } else if (toAudit.length > 0) {
     const entries = parseFiles(toAudit);
     await auditEntriesParallel(entries, options.audit);
     for (const e of entries) slots[index.get(e.file)!] = e;
     if (pages) for (const p of writeEntryPages(entries, createPageRenderer(pages.includesDir, pages.site), pages.outDir)) written.set(p.id, p);
+    options.onAudited?.(entries);
   }
   const entries = slots as RecordEntry[];
   if (pages) attachFragments(entries);

@@ -17,6 +17,12 @@ import { CONFIG_FILE, CONTENT_DIR, PACKAGE_ROOT } from "./paths.js";
 import type { Issue } from "../problem.js";
 import { readAuditJson } from "../releases/read-audit-json.js";
 import type { PreviousAudit } from "./changes-view.js";
+import { mkdtempSync, rmSync } from "node:fs";
+import os from "node:os";
+import { PreparedElements, type ReuseBytes } from "./json-stream.js";
+import { AUDIT_JSON_PAD, AUDIT_JSON_PATH } from "./downloads.js";
+import { auditJsonText } from "../cache/lazy-audit.js";
+import type { RecordEntry } from "../build/record-work.js";
 
 export interface BuildSiteOptions {
   readonly recordsDir: string;
@@ -191,33 +197,44 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
   const previous = options.compareTo !== undefined ? readPreviousAudit(options.compareTo) : undefined;
   // Eleventy's modules load while the workers audit (this thread waits on them then); renderSite imports the same module
   import("@11ty/eleventy").catch(() => undefined);
-  const run = await runPipeline(
-    options.recordsDir,
-    {
-      audit,
-      ...(cacheDir !== undefined ? { cacheDir } : {}),
-      pages: { includesDir, outDir, site, ...(manifest ? { manifest } : {}) },
-      ...(options.pageWorkers !== undefined ? { workers: options.pageWorkers } : {}),
-    },
-    keyed,
-  );
+  // With nothing to copy from the last build's audit JSON, each audited object's text in it is made
+  // as the object comes in from a worker, while this thread waits, instead of after the audit.
+  const prepared = manifest && !manifest.previousSegments(AUDIT_JSON_PATH) ? preparedAuditJson() : undefined;
+  let pages: number;
+  let run: Awaited<ReturnType<typeof runPipeline>>;
+  try {
+    run = await runPipeline(
+      options.recordsDir,
+      {
+        audit,
+        ...(cacheDir !== undefined ? { cacheDir } : {}),
+        pages: { includesDir, outDir, site, ...(manifest ? { manifest } : {}) },
+        ...(options.pageWorkers !== undefined ? { workers: options.pageWorkers } : {}),
+        ...(prepared ? { onAudited: prepared.add } : {}),
+      },
+      keyed,
+    );
+    const cache: SiteCache | undefined = manifest
+      ? {
+          manifest,
+          ...(run.reportKey !== undefined ? { reportKey: run.reportKey } : {}),
+          ...(run.objectKeys ? { objectKeys: run.objectKeys } : {}),
+          ...(prepared ? { preparedAuditJson: prepared.close() } : {}),
+        }
+      : undefined;
+    pages = await renderSite({
+      report: run.report,
+      outDir,
+      basePath: base.value,
+      ...(options.quiet !== undefined ? { quiet: options.quiet } : {}),
+      ...(previous ? { previous } : {}),
+      ...(cache ? { cache } : {}),
+      objectPagesWritten: true,
+    });
+  } finally {
+    prepared?.remove();
+  }
   const { report } = run;
-  const cache: SiteCache | undefined = manifest
-    ? {
-        manifest,
-        ...(run.reportKey !== undefined ? { reportKey: run.reportKey } : {}),
-        ...(run.objectKeys ? { objectKeys: run.objectKeys } : {}),
-      }
-    : undefined;
-  const pages = await renderSite({
-    report,
-    outDir,
-    basePath: base.value,
-    ...(options.quiet !== undefined ? { quiet: options.quiet } : {}),
-    ...(previous ? { previous } : {}),
-    ...(cache ? { cache } : {}),
-    objectPagesWritten: true,
-  });
   const told: BuildTold = {
     pages,
     summary: report.summary,
@@ -238,4 +255,27 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
     }
   }
   return outcomeOf(told, run.stats, () => report);
+}
+
+/** A temporary file of audit JSON texts, keyed by record file key, filled as entries are audited. */
+function preparedAuditJson(): { add: (entries: readonly RecordEntry[]) => void; close: () => ReuseBytes; remove: () => void } {
+  const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-audit-json-"));
+  let texts: PreparedElements | undefined;
+  try {
+    texts = new PreparedElements(path.join(dir, "objects.json"), AUDIT_JSON_PAD);
+  } catch (error) {
+    rmSync(dir, { recursive: true, force: true });
+    throw error;
+  }
+  const file = texts;
+  return {
+    add: (entries) => {
+      for (const e of entries) if (e.key !== "" && e.audit?.object) file.add(e.key, auditJsonText(e.audit.object));
+    },
+    close: () => file.close(),
+    remove: () => {
+      file.close();
+      rmSync(dir, { recursive: true, force: true });
+    },
+  };
 }

@@ -3,7 +3,7 @@ import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
 import { AUDIT_JSON_STREAM, DOWNLOADS } from "./downloads.js";
-import { writeJsonStreamed, type StreamedFile } from "./json-stream.js";
+import { writeJsonStreamed, type ReuseBytes, type StreamedFile } from "./json-stream.js";
 import { writeTextFile } from "./page-writer.js";
 
 /** Where a build with a cache finds the pieces of the full audit JSON it may copy from the last one. */
@@ -11,6 +11,8 @@ interface StreamCache {
   readonly manifest: OutputManifest;
   /** The content key of each object's record file, by object; absent: nothing is copied. */
   readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
+  /** Texts made ahead under those keys, copied when the last build's file has none to give. */
+  readonly preparedAuditJson?: ReuseBytes;
 }
 
 /** Downloads written as a stream, object by object, instead of through their render function. */
@@ -20,11 +22,12 @@ const STREAMED: Readonly<
   audit_json: (report, file, relPath, cache) => {
     const keys = cache?.objectKeys;
     const segments = keys ? cache.manifest.previousSegments(relPath) : undefined;
+    const reuse: ReuseBytes | undefined = segments ? { file, segments } : keys ? cache.preparedAuditJson : undefined;
     return writeJsonStreamed(file, report as unknown as Record<string, unknown>, AUDIT_JSON_STREAM.streamed, {
       textOf: AUDIT_JSON_STREAM.textOf,
       padTo: AUDIT_JSON_STREAM.padTo,
       ...(keys ? { keyOf: (item: unknown) => keys.get(item as ObjectAudit) } : {}),
-      ...(segments ? { reuse: { file, segments } } : {}),
+      ...(reuse ? { reuse } : {}),
     });
   },
 };
@@ -37,7 +40,7 @@ const STREAMED: Readonly<
 export function writeDownloads(
   report: AuditReport,
   outDir: string,
-  cache?: { readonly manifest: OutputManifest; readonly reportKey: string; readonly objectKeys?: ReadonlyMap<ObjectAudit, string> },
+  cache?: StreamCache & { readonly reportKey: string },
 ): number {
   let written = 0;
   for (const d of DOWNLOADS) {

@@ -18,6 +18,9 @@ import type { ObjectAudit } from "../audit/types.js";
  */
 export const AUDIT_JSON_PAD = 256;
 
+/** Where the full audit JSON goes in the site. */
+export const AUDIT_JSON_PATH = "downloads/audit.json";
+
 /** The options that write downloads/audit.json, streamed or whole. */
 export const AUDIT_JSON_STREAM = {
   streamed: new Set(["objects"]) as ReadonlySet<string>,
@@ -77,7 +80,7 @@ export const DOWNLOADS: readonly Download[] = [
   },
   {
     key: "audit_json",
-    path: "downloads/audit.json",
+    path: AUDIT_JSON_PATH,
     title: "Full audit (every input, result, comparison and record problem)",
     format: "JSON",
     render: (report) =>

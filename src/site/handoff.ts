@@ -1,3 +1,4 @@
+import type { ReuseBytes } from "./json-stream.js";
 import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { PreviousAudit } from "./changes-view.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
@@ -10,6 +11,8 @@ export interface SiteCache {
   readonly reportKey?: string;
   /** The content key of each object's record file: an object whose key the last build's audit JSON lists is copied from it. */
   readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
+  /** Objects' audit JSON texts made during the audit, under the same keys, to copy where the last build's file has nothing to give. */
+  readonly preparedAuditJson?: ReuseBytes;
 }
 
 /**

@@ -219,6 +219,72 @@ function updateInPlace(
   }
 }
 
+/**
+ * Element texts written ahead, in any order, to a file of their own, each
+ * padded as writeJsonStreamed pads it; its `reuse` then lets
+ * writeJsonStreamed copy them into place instead of making them there. (A
+ * build makes each object's text as its audit arrives from a worker, while
+ * this thread would otherwise wait.)
+ */
+export class PreparedElements {
+  private readonly fd: number;
+  private readonly segments: Segment[] = [];
+  private readonly buffer = Buffer.allocUnsafe(BUFFER_BYTES);
+  private used = 0;
+  private written = 0;
+  private closed = false;
+
+  constructor(
+    readonly file: string,
+    private readonly padTo = 1,
+  ) {
+    this.fd = openSync(file, "w");
+  }
+
+  /** Adds the text of the element with key `key`. */
+  add(key: string, text: string): void {
+    if (this.closed) throw new Error("PreparedElements.add: already closed");
+    const start = this.written + this.used;
+    let bytes = this.put(text);
+    if (this.padTo > 1) bytes += this.put(padding(bytes, this.padTo));
+    this.segments.push([key, start, bytes]);
+  }
+
+  /** Writes out what is pending; the texts can then be copied (see writeJsonStreamed's `reuse`). */
+  close(): ReuseBytes {
+    if (!this.closed) {
+      this.flush();
+      closeSync(this.fd);
+      this.closed = true;
+    }
+    return { file: this.file, segments: this.segments };
+  }
+
+  private put(text: string): number {
+    const most = 3 * text.length;
+    if (this.used + most > BUFFER_BYTES) this.flush();
+    if (most > BUFFER_BYTES) {
+      const bytes = Buffer.from(text, "utf8");
+      this.writeAll(bytes, bytes.length);
+      return bytes.length;
+    }
+    const n = this.buffer.write(text, this.used, "utf8");
+    this.used += n;
+    return n;
+  }
+
+  private flush(): void {
+    this.writeAll(this.buffer, this.used);
+    this.used = 0;
+  }
+
+  private writeAll(bytes: Buffer, length: number): void {
+    let off = 0;
+    while (off < length) off += writeSync(this.fd, bytes, off, length - off);
+    this.written += length;
+  }
+}
+
 /** The text writeJsonStreamed writes for `value` without an earlier file, as one string (for small values and tests). */
 export function jsonStreamedText(value: Record<string, unknown>, streamed: ReadonlySet<string>, options: Omit<StreamedOptions, "reuse"> = {}): string {
   const parts: string[] = [];

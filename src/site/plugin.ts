@@ -152,7 +152,12 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
       await report(),
       path.resolve(outDir),
       cache?.reportKey !== undefined
-        ? { manifest: cache.manifest, reportKey: cache.reportKey, ...(cache.objectKeys ? { objectKeys: cache.objectKeys } : {}) }
+        ? {
+            manifest: cache.manifest,
+            reportKey: cache.reportKey,
+            ...(cache.objectKeys ? { objectKeys: cache.objectKeys } : {}),
+            ...(cache.preparedAuditJson ? { preparedAuditJson: cache.preparedAuditJson } : {}),
+          }
         : undefined,
     );
   });

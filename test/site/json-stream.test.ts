@@ -3,7 +3,7 @@ import os from "node:os";
 import path from "node:path";
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
-import { jsonStreamedText, writeJsonStreamed } from "../../src/site/json-stream.js";
+import { jsonStreamedText, PreparedElements, writeJsonStreamed } from "../../src/site/json-stream.js";
 
 const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-json-stream-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -149,5 +149,24 @@ describe("padded streamed JSON, updated in place where it can be", () => {
     );
     // both ways were taken
     expect(inPlace).toBeGreaterThan(50);
+  });
+});
+
+describe("element texts prepared ahead", () => {
+  const keyOf = (item: unknown) => (item as { id?: string }).id;
+
+  it("are copied into place, in the value's order, to the bytes of a fresh padded write", () => {
+    const list = Array.from({ length: 500 }, (_, i) => ({ id: `p${i}`, text: "ä σ ".repeat(i % 40), v: i / 7 }));
+    const prepared = new PreparedElements(path.join(dir, "prepared.json"), 64);
+    // in another order, with one element more than the value holds and one it lacks
+    for (const item of [...list].reverse()) if (item.id !== "p7") prepared.add(item.id, JSON.stringify(item));
+    prepared.add("extra", JSON.stringify({ id: "extra" }));
+    const reuse = prepared.close();
+    const file = path.join(dir, "from-prepared.json");
+    const value = { head: "h", objects: list };
+    const out = writeJsonStreamed(file, value, new Set(["objects"]), { padTo: 64, keyOf, reuse });
+    expect(out.reused).toBe(499);
+    expect(out.inPlace).toBe(false);
+    expect(readFileSync(file, "utf8")).toBe(jsonStreamedText(value, new Set(["objects"]), { padTo: 64 }));
   });
 });

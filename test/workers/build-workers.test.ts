@@ -75,6 +75,11 @@ describe("the compiled build on worker threads", () => {
     const cache = path.join(temp, "cache");
     const fresh = path.join(temp, "fresh");
     cli("build", records, "--out", cached, "--cache-dir", cache, "--draws", DRAWS, "--exit-zero", "--quiet");
+    // the cold build made the objects' audit JSON texts as the workers sent their audits in, and cleared them away
+    const freshBefore = path.join(temp, "fresh-before");
+    cli("build", records, "--out", freshBefore, "--no-cache", "--draws", DRAWS, "--exit-zero", "--quiet");
+    expect(differences(snapshot(freshBefore), snapshot(cached))).toEqual([]);
+    expect(readdirSync(childTmp).filter((n) => n.startsWith("steelyard-audit-json-"))).toEqual([]);
     editOnePublishedValue(records, 2);
     cli("build", records, "--out", cached, "--cache-dir", cache, "--draws", DRAWS, "--exit-zero", "--quiet");
     cli("build", records, "--out", fresh, "--no-cache", "--draws", DRAWS, "--exit-zero", "--quiet");
