@@ -55,8 +55,10 @@ function checkSignificant(significant: number): void {
 
 /** |x| rounded to `significant` digits: the digits (no point) and the power of ten of the first one. */
 function roundedDigits(x: number, significant: number): { digits: string; exponent: number } {
-  const [mantissa, exp] = Math.abs(x).toExponential(significant - 1).split("e");
-  return { digits: mantissa.replace(".", ""), exponent: Number(exp) };
+  // "d.ddde+N", or "de+N" for one digit
+  const text = Math.abs(x).toExponential(significant - 1);
+  const e = text.indexOf("e");
+  return { digits: e === 1 ? text[0] : text[0] + text.slice(2, e), exponent: Number(text.slice(e + 1)) };
 }
 
 /** Places the decimal point in `digits` whose first digit has power of ten `exponent`. */
