@@ -73,6 +73,10 @@ function step(st: Int32Array, at: number): number {
 /** Normal deviates made per refill: fixed, so that the sequence does not depend on how many draws each call asks for. */
 const CHUNK = 512;
 
+/** Where makeNormals notes the tries it finishes later: scratch shared by every stream (a refill never runs inside another). */
+const SLOW_AT = new Int32Array(CHUNK);
+const SLOW_WORD = new Int32Array(CHUNK);
+
 export class DrawStream {
   /**
    * Two sfc32 states: [0..4) makes the words of the normal deviates, [4..8) the
@@ -83,8 +87,6 @@ export class DrawStream {
   /** Standard normal deviates made ahead, used from `next`. */
   private readonly normals = new Float64Array(CHUNK);
   private next = CHUNK;
-  private readonly slowAt = new Int32Array(CHUNK);
-  private readonly slowWord = new Int32Array(CHUNK);
   /** [plus, −minus] of the current split normal, picked without a branch. */
   private readonly sides = new Float64Array(2);
 
@@ -166,8 +168,8 @@ export class DrawStream {
    * and scale 1 this is z itself, exactly.)
    */
   private makeNormals(target: Float64Array, at: number, value: number, scale: number): void {
-    const slowAt = this.slowAt;
-    const slowWord = this.slowWord;
+    const slowAt = SLOW_AT;
+    const slowWord = SLOW_WORD;
     let slow = 0;
     const st = this.state;
     let a = st[0];

@@ -1,6 +1,6 @@
 import type { MethodDefinition } from "../methods/method.js";
 import { DrawStream } from "./draw-stream.js";
-import { P16, P84, SampleAccumulator, type SampleSummary } from "./sample-summary.js";
+import { BUCKET_TABLE_LENGTH, P16, P84, SampleAccumulator, type SampleSummary } from "./sample-summary.js";
 import { meanAndSd, quantileSorted } from "./statistics.js";
 
 export type { SampleSummary } from "./sample-summary.js";
@@ -46,6 +46,7 @@ class Workspace {
   private readonly float: Float64Array[] = [];
   private readonly int: Int32Array[] = [];
   private bytes = new Uint8Array(0);
+  private readonly table: Array<{ head: Int32Array; counts: Int32Array }> = [];
 
   /** Float column k with room for n values; contents undefined. */
   floats(k: number, n: number): Float64Array {
@@ -56,6 +57,12 @@ class Workspace {
   ints(k: number, n: number): Int32Array {
     if (!this.int[k] || this.int[k].length < n) this.int[k] = new Int32Array(n);
     return this.int[k];
+  }
+
+  /** The bucket tables of accumulator k (contents undefined; the accumulator clears them). */
+  tables(k: number): { head: Int32Array; counts: Int32Array } {
+    while (this.table.length <= k) this.table.push({ head: new Int32Array(BUCKET_TABLE_LENGTH), counts: new Int32Array(BUCKET_TABLE_LENGTH) });
+    return this.table[k];
   }
 
   flags(n: number): Uint8Array {
@@ -96,7 +103,7 @@ export function runMonteCarlo(
   const useKernel = options.path !== "per-draw" && method.batch !== undefined && method.validate(nominal).length === 0;
   const capacity = draws + block;
   const buffers = names.map((_, k) => workspace.floats(k, capacity));
-  const accumulators = names.map((_, k) => new SampleAccumulator(workspace.ints(k, capacity)));
+  const accumulators = names.map((_, k) => new SampleAccumulator(workspace.ints(k, capacity), workspace.tables(k)));
   const run: Draw = { method, inputs, uncertain, streams, names, buffers, accumulators, draws, block };
   const counts = useKernel ? drawWithKernel(run) : drawPerDraw(run);
   const summaries: Record<string, SampleSummary> = {};

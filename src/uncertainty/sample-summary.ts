@@ -34,6 +34,8 @@ export const P84 = 0.8413447460685429;
 const INNER_BUCKETS = 4096;
 const TOP_BUCKET = INNER_BUCKETS + 1;
 const HALF_RANGE_SIGMAS = 3;
+/** Entries of a bucket table (the inner buckets and one at each end). */
+export const BUCKET_TABLE_LENGTH = TOP_BUCKET + 1;
 /** How many of the first values place the grid. */
 const GRID_VALUES = 1024;
 
@@ -113,8 +115,8 @@ export class SampleAccumulator {
   /** next[j]: the value after value j in its bucket's list, −1 at the end. */
   private readonly next: Int32Array;
   /** The first value of each bucket's list, −1 for none. */
-  private readonly head = new Int32Array(TOP_BUCKET + 1).fill(-1);
-  private readonly counts = new Int32Array(TOP_BUCKET + 1);
+  private readonly head: Int32Array;
+  private readonly counts: Int32Array;
   /** Sums of (x − centre) and of its square. */
   private readonly sums = new Float64Array(2);
   private lo = NaN;
@@ -124,9 +126,20 @@ export class SampleAccumulator {
   /** Values already in their buckets: values[0..binned). */
   private binned = 0;
 
-  /** `next` has room for every value to come, one link each; it may be reused scratch space. */
-  constructor(next: Int32Array) {
+  /**
+   * `next` has room for every value to come, one link each; it may be reused
+   * scratch space, and so may `tables` (two arrays of BUCKET_TABLE_LENGTH
+   * whole numbers, cleared here), which are otherwise made afresh.
+   */
+  constructor(next: Int32Array, tables?: { readonly head: Int32Array; readonly counts: Int32Array }) {
     this.next = next;
+    if (tables && tables.head.length >= BUCKET_TABLE_LENGTH && tables.counts.length >= BUCKET_TABLE_LENGTH) {
+      this.head = tables.head.fill(-1, 0, BUCKET_TABLE_LENGTH);
+      this.counts = tables.counts.fill(0, 0, BUCKET_TABLE_LENGTH);
+    } else {
+      this.head = new Int32Array(BUCKET_TABLE_LENGTH).fill(-1);
+      this.counts = new Int32Array(BUCKET_TABLE_LENGTH);
+    }
   }
 
   /**
