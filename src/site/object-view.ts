@@ -200,8 +200,12 @@ function inputsInMethodOrder(inputs: InputAudit[], method: MethodDefinition | un
   return [...inputs].sort((a, b) => rank(a) - rank(b) || (a.field < b.field ? -1 : a.field > b.field ? 1 : 0));
 }
 
-/** Markup for a display equation: the typeset string, or a stand-in that a page writer swaps for it (see page-bytes.ts). */
-export type DisplayTex = (tex: string) => string;
+/**
+ * Markup for a display equation: the typeset string, or a stand-in that a
+ * page writer swaps for it (see page-bytes.ts). `repeats` says that other
+ * pages show the very same TeX (a method's general form).
+ */
+export type DisplayTex = (tex: string, repeats?: boolean) => string;
 
 const typesetDisplay: DisplayTex = (tex) => renderTex(tex, true);
 
@@ -220,7 +224,7 @@ function measurementView(m: MeasurementAudit, lookup: MethodLookup, displayTex: 
     results: Object.values(m.results).map((r) => resultView(r, m, method)),
     equations: m.equations.map((eq) => ({
       results: eq.results.map(plainName).join(", "),
-      generalHtml: displayTex(eq.general),
+      generalHtml: displayTex(eq.general, true),
       substitutedHtml: eq.substituted ? displayTex(eq.substituted) : "",
     })),
     seed: m.seed,

@@ -21,6 +21,9 @@ import { encodedPiecesOf, typesetEquation, type TypesetEquation } from "./katex.
  * and no other placeholder does; otherwise (a record's text holding the tag,
  * say) the caller renders the page as text.
  */
+/** How many repeating equations are kept (a site has a few dozen: one per method and combination of inputs). */
+const REPEATED_LIMIT = 1024;
+
 export class PageBytes {
   private readonly open = `\ue000${randomBytes(6).toString("hex")}#`;
   private equations: TypesetEquation[] = [];
@@ -31,10 +34,25 @@ export class PageBytes {
     this.equations = [];
   }
 
-  /** The placeholder of a display equation on this page. */
-  displayEquation(tex: string): string {
+  /** Equations that repeat from page to page (a method's general form), by their TeX. */
+  private readonly repeated = new Map<string, TypesetEquation>();
+
+  /**
+   * The placeholder of a display equation on this page. With `repeats`, the
+   * equation is one that many pages show as it is: it is looked up by its
+   * TeX rather than cut into numbers and spliced again.
+   */
+  displayEquation(tex: string, repeats = false): string {
     const k = this.equations.length;
-    this.equations.push(typesetEquation(tex, true));
+    let eq = repeats ? this.repeated.get(tex) : undefined;
+    if (eq === undefined) {
+      eq = typesetEquation(tex, true);
+      if (repeats) {
+        if (this.repeated.size >= REPEATED_LIMIT) this.repeated.clear();
+        this.repeated.set(tex, eq);
+      }
+    }
+    this.equations.push(eq);
     return `${this.open}${k}\ue001`;
   }
 

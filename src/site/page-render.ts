@@ -58,7 +58,7 @@ export function createPageRenderer(includesDir: string, site: PageSite, assemble
   const lookup: MethodLookup = (id) => byId.get(id);
   const settings = site.settings;
   const base = site.basePath;
-  const deferred: DisplayTex = (tex) => assembler.displayEquation(tex);
+  const deferred: DisplayTex = (tex, repeats) => assembler.displayEquation(tex, repeats);
   const render = ({ obj, problems }: PageInput, displayTex?: DisplayTex): string => {
     const steelyard = {
       basePath: base,
