@@ -1,5 +1,5 @@
 import { randomBytes } from "node:crypto";
-import { encodedPiecesOf, typesetEquation, type TypesetEquation } from "./katex.js";
+import { encodedPiecesOf, renderTex, typesetEquation, type TypesetEquation } from "./katex.js";
 
 /**
  * An object page as UTF-8 bytes, put together without making its equations
@@ -26,7 +26,7 @@ const REPEATED_LIMIT = 1024;
 
 export class PageBytes {
   private readonly open = `\ue000${randomBytes(6).toString("hex")}#`;
-  private equations: TypesetEquation[] = [];
+  private equations: Array<TypesetEquation | Buffer> = [];
   private scratch = Buffer.allocUnsafe(1 << 20);
 
   /** Starts a page: forgets the equations of the last one. */
@@ -34,25 +34,25 @@ export class PageBytes {
     this.equations = [];
   }
 
-  /** Equations that repeat from page to page (a method's general form), by their TeX. */
-  private readonly repeated = new Map<string, TypesetEquation>();
+  /** Equations that repeat from page to page (a method's general form): their UTF-8, by their TeX. */
+  private readonly repeated = new Map<string, Buffer>();
 
   /**
    * The placeholder of a display equation on this page. With `repeats`, the
-   * equation is one that many pages show as it is: it is looked up by its
-   * TeX rather than cut into numbers and spliced again.
+   * equation is one that many pages show as it is: its bytes are kept, and
+   * found again by its TeX rather than cut into numbers and spliced again.
    */
   displayEquation(tex: string, repeats = false): string {
     const k = this.equations.length;
-    let eq = repeats ? this.repeated.get(tex) : undefined;
-    if (eq === undefined) {
-      eq = typesetEquation(tex, true);
-      if (repeats) {
+    if (repeats) {
+      let bytes = this.repeated.get(tex);
+      if (bytes === undefined) {
+        bytes = Buffer.from(renderTex(tex, true), "utf8");
         if (this.repeated.size >= REPEATED_LIMIT) this.repeated.clear();
-        this.repeated.set(tex, eq);
+        this.repeated.set(tex, bytes);
       }
-    }
-    this.equations.push(eq);
+      this.equations.push(bytes);
+    } else this.equations.push(typesetEquation(tex, true));
     return `${this.open}${k}\ue001`;
   }
 
@@ -98,7 +98,8 @@ export class PageBytes {
     return used + bytes.length;
   }
 
-  private equation(eq: TypesetEquation, used: number): number {
+  private equation(eq: TypesetEquation | Buffer, used: number): number {
+    if (Buffer.isBuffer(eq)) return this.bytes(eq, used);
     if (eq.kind === "whole") return this.text(eq.html, used);
     const pieces = encodedPiecesOf(eq.template);
     const slots = eq.template.slots;
