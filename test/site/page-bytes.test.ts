@@ -55,6 +55,16 @@ describe("PageBytes", () => {
     expect(Buffer.from(pb.assemble(page)!).toString("utf8")).toBe(expected);
   });
 
+  it("gives a repeating equation the same bytes on every page, the first included", () => {
+    const pb = new PageBytes();
+    const tex = "M = \\frac{4\\pi^{2}a^{3}}{GP^{2}}\\;(\\text{new shape } 31)";
+    for (let page = 0; page < 3; page++) {
+      pb.begin();
+      const page1 = `<p>${pb.displayEquation(tex, true)}</p>${pb.displayEquation(TEX[0])}`;
+      expect(Buffer.from(pb.assemble(page1)!).toString("utf8")).toBe(`<p>${renderTex(tex, true)}</p>${renderTex(TEX[0], true)}`);
+    }
+  });
+
   it("refuses a page whose placeholders are missing, repeated, out of order or from another page", () => {
     const pb = new PageBytes();
     pb.begin();
