@@ -227,40 +227,56 @@ function updateInPlace(
  * this thread would otherwise wait.)
  */
 export class PreparedElements {
-  private readonly fd: number;
+  private readonly out: TextFileWriter;
   private readonly segments: Segment[] = [];
-  private readonly buffer = Buffer.allocUnsafe(BUFFER_BYTES);
-  private used = 0;
-  private written = 0;
   private closed = false;
 
   constructor(
     readonly file: string,
     private readonly padTo = 1,
   ) {
-    this.fd = openSync(file, "w");
+    this.out = new TextFileWriter(openSync(file, "w"));
   }
 
   /** Adds the text of the element with key `key`. */
   add(key: string, text: string): void {
     if (this.closed) throw new Error("PreparedElements.add: already closed");
-    const start = this.written + this.used;
-    let bytes = this.put(text);
-    if (this.padTo > 1) bytes += this.put(padding(bytes, this.padTo));
+    const start = this.out.offset;
+    let bytes = this.out.put(text);
+    if (this.padTo > 1) bytes += this.out.put(padding(bytes, this.padTo));
     this.segments.push([key, start, bytes]);
   }
 
   /** Writes out what is pending; the texts can then be copied (see writeJsonStreamed's `reuse`). */
   close(): ReuseBytes {
     if (!this.closed) {
-      this.flush();
-      closeSync(this.fd);
+      this.out.flush();
+      closeSync(this.out.fd);
       this.closed = true;
     }
     return { file: this.file, segments: this.segments };
   }
+}
 
-  private put(text: string): number {
+/**
+ * Text encoded straight into one buffer and written to `fd` whenever the
+ * next piece might not fit (or read into it from another file, by `copyFrom`).
+ */
+class TextFileWriter {
+  private readonly buffer = Buffer.allocUnsafe(BUFFER_BYTES);
+  private used = 0;
+  private written = 0;
+
+  constructor(readonly fd: number) {}
+
+  /** Bytes so far, written or pending. */
+  get offset(): number {
+    return this.written + this.used;
+  }
+
+  /** Adds text; returns its length in bytes. */
+  put(text: string): number {
+    // at most three UTF-8 bytes per UTF-16 code unit
     const most = 3 * text.length;
     if (this.used + most > BUFFER_BYTES) this.flush();
     if (most > BUFFER_BYTES) {
@@ -273,7 +289,20 @@ export class PreparedElements {
     return n;
   }
 
-  private flush(): void {
+  /** Adds bytes [at, at + length) of the file `source` (named `name` in errors). */
+  copyFrom(source: number, name: string, at: number, length: number): void {
+    let left = length;
+    while (left > 0) {
+      if (this.used === BUFFER_BYTES) this.flush();
+      const n = readSync(source, this.buffer, this.used, Math.min(left, BUFFER_BYTES - this.used), at);
+      if (n <= 0) throw new Error(`writeJsonStreamed: ${name} is shorter than its segments say`);
+      this.used += n;
+      at += n;
+      left -= n;
+    }
+  }
+
+  flush(): void {
     this.writeAll(this.buffer, this.used);
     this.used = 0;
   }
@@ -334,52 +363,17 @@ export function writeJsonStreamed(
   const fd = openSync(target, "w");
   let done = false;
   try {
-    // texts are encoded straight into one buffer, written out whenever the next might not fit
-    const buffer = Buffer.allocUnsafe(BUFFER_BYTES);
-    let used = 0;
-    let written = 0;
-    const writeAll = (bytes: Buffer, length: number): void => {
-      let off = 0;
-      while (off < length) off += writeSync(fd, bytes, off, length - off);
-      written += length;
-    };
-    const flush = (): void => {
-      writeAll(buffer, used);
-      used = 0;
-    };
+    const out = new TextFileWriter(fd);
     const sink: Sink = {
       get offset() {
-        return written + used;
+        return out.offset;
       },
-      put(text: string): number {
-        // at most three UTF-8 bytes per UTF-16 code unit
-        const most = 3 * text.length;
-        if (used + most > BUFFER_BYTES) flush();
-        if (most > BUFFER_BYTES) {
-          const bytes = Buffer.from(text, "utf8");
-          writeAll(bytes, bytes.length);
-          return bytes.length;
-        }
-        const n = buffer.write(text, used, "utf8");
-        used += n;
-        return n;
-      },
-      /** Copies the element's bytes from the earlier file through the buffer. */
-      copy(old: Segment): void {
-        let left = old[2];
-        let at = old[1];
-        while (left > 0) {
-          if (used === BUFFER_BYTES) flush();
-          const n = readSync(source!, buffer, used, Math.min(left, BUFFER_BYTES - used), at);
-          if (n <= 0) throw new Error(`writeJsonStreamed: ${options.reuse!.file} is shorter than its segments say`);
-          used += n;
-          at += n;
-          left -= n;
-        }
-      },
+      put: (text) => out.put(text),
+      // the element's bytes, from the earlier file through the buffer
+      copy: (old) => out.copyFrom(source!, options.reuse!.file, old[1], old[2]),
     };
     const walked = walk(value, streamed, options, earlier, sink);
-    flush();
+    out.flush();
     const info = fstatSync(fd);
     done = true;
     return { size: info.size, mtimeMs: info.mtimeMs, ...walked, inPlace: false };
