@@ -22,8 +22,18 @@ function shardFile(folder: string, n: number): string {
   return path.join(folder, `shard-${String(n).padStart(2, "0")}.bin`);
 }
 
+/**
+ * The shard of a record file: FNV-1a (32 bits) of its path, modulo SHARDS.
+ * Only the spread matters here, not resistance to collisions, and a build
+ * asks it three times per record file (reading, and writing old and new).
+ */
 export function shardOf(file: string): number {
-  return parseInt(digest([file]).slice(0, 6), 16) % SHARDS;
+  let h = 0x811c9dc5;
+  for (let i = 0; i < file.length; i++) {
+    h ^= file.charCodeAt(i);
+    h = Math.imul(h, 0x01000193);
+  }
+  return (h >>> 0) % SHARDS;
 }
 
 /**
@@ -44,7 +54,7 @@ const IDENTITY: StoreCodec<never> = {
 
 /**
  * A shard's values as written: the name and size of its blob file first,
- * then per entry its value and its blob's place. Each writing of a shard
+ * then one array with, per entry, its value and its blob's place. Each writing of a shard
  * makes a blob file of a new name, so a shard never reads blobs written for
  * another version of it.
  */
@@ -105,8 +115,10 @@ export function readRecordStore<T extends Keyed>(folder: string, codec: StoreCod
     const blobs = path.join(folder, head.blobs);
     // a blob file missing or of another size makes the whole shard unusable
     if (head.blobBytes > 0 && blobBytesOnDisk(blobs) !== head.blobBytes) continue;
-    for (let k = 1; k < values.length; k++) {
-      const r = values[k] as ShardRecord;
+    // one value holds every record of the shard: one deserialisation, not one per entry
+    const records = values[1];
+    if (values.length !== 2 || !Array.isArray(records)) continue;
+    for (const r of records as ShardRecord[]) {
       if (!r) continue;
       const { at, length } = r;
       const e = codec.decode(r.value, at !== undefined && length !== undefined ? () => readBlob(blobs, at, length) : undefined);
@@ -145,7 +157,7 @@ function writeShard<T>(folder: string, n: number, list: readonly T[], codec: Sto
   closeSync(fd);
   if (at === 0) rmSync(blobs, { force: true });
   const kept = at === 0 ? "" : name;
-  writeChunkedFile(shardFile(folder, n), KIND, [{ blobs: kept, blobBytes: at } satisfies ShardHead, ...records]);
+  writeChunkedFile(shardFile(folder, n), KIND, [{ blobs: kept, blobBytes: at } satisfies ShardHead, records]);
   for (const old of blobFilesOf(folder, n)) if (old !== kept) rmSync(path.join(folder, old), { force: true });
 }
 
