@@ -1,4 +1,5 @@
-import { closeSync, mkdirSync, openSync, readSync, renameSync, rmSync, writeSync } from "node:fs";
+import { closeSync, mkdirSync, openSync, readSync, renameSync, rmSync } from "node:fs";
+import { BufferedFile } from "./buffered-file.js";
 import path from "node:path";
 import { deserialize, serialize } from "node:v8";
 
@@ -85,34 +86,18 @@ export function writeChunkedFile(file: string, kind: string, values: Iterable<un
   let ok = false;
   try {
     // values are gathered into one buffer and written a megabyte at a time, not two system calls each
-    const buffer = Buffer.allocUnsafe(WRITE_BUFFER_BYTES);
-    let used = 0;
-    const flush = (): void => {
-      let off = 0;
-      while (off < used) off += writeSync(fd, buffer, off, used - off);
-      used = 0;
-    };
-    const append = (bytes: Uint8Array): void => {
-      if (used + bytes.length > WRITE_BUFFER_BYTES) flush();
-      if (bytes.length > WRITE_BUFFER_BYTES) {
-        let off = 0;
-        while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
-        return;
-      }
-      buffer.set(bytes, used);
-      used += bytes.length;
-    };
+    const out = new BufferedFile(fd, WRITE_BUFFER_BYTES);
     const len = Buffer.alloc(4);
     const put = (value: unknown): void => {
       const bytes = serialize(value);
       len.writeUInt32LE(bytes.length);
-      append(len);
-      append(bytes);
+      out.putBytes(len);
+      out.putBytes(bytes);
     };
-    append(MAGIC);
+    out.putBytes(MAGIC);
     put({ kind, format: CHUNKED_FORMAT } satisfies Header);
     for (const v of values) put(v);
-    flush();
+    out.flush();
     ok = true;
   } finally {
     closeSync(fd);

@@ -260,22 +260,22 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
 /** A temporary file of audit JSON texts, keyed by record file key, filled as entries are audited. */
 function preparedAuditJson(): { add: (entries: readonly RecordEntry[]) => void; close: () => ReuseBytes; remove: () => void } {
   const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-audit-json-"));
-  let texts: PreparedElements | undefined;
+  const remove = (): void => rmSync(dir, { recursive: true, force: true });
+  let texts: PreparedElements;
   try {
     texts = new PreparedElements(path.join(dir, "objects.json"), AUDIT_JSON_PAD);
   } catch (error) {
-    rmSync(dir, { recursive: true, force: true });
+    remove();
     throw error;
   }
-  const file = texts;
   return {
     add: (entries) => {
-      for (const e of entries) if (e.key !== "" && e.audit?.object) file.add(e.key, auditJsonText(e.audit.object));
+      for (const e of entries) if (e.key !== "" && e.audit?.object) texts.add(e.key, auditJsonText(e.audit.object));
     },
-    close: () => file.close(),
+    close: () => texts.close(),
     remove: () => {
-      file.close();
-      rmSync(dir, { recursive: true, force: true });
+      texts.close();
+      remove();
     },
   };
 }

@@ -2,7 +2,7 @@ import path from "node:path";
 import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
-import { AUDIT_JSON_STREAM, DOWNLOADS } from "./downloads.js";
+import { AUDIT_JSON_ELEMENTS, AUDIT_JSON_STREAMED, DOWNLOADS } from "./downloads.js";
 import { writeJsonStreamed, type ReuseBytes, type StreamedFile } from "./json-stream.js";
 import { writeTextFile } from "./page-writer.js";
 
@@ -23,9 +23,8 @@ const STREAMED: Readonly<
     const keys = cache?.objectKeys;
     const segments = keys ? cache.manifest.previousSegments(relPath) : undefined;
     const reuse: ReuseBytes | undefined = segments ? { file, segments } : keys ? cache.preparedAuditJson : undefined;
-    return writeJsonStreamed(file, report as unknown as Record<string, unknown>, AUDIT_JSON_STREAM.streamed, {
-      textOf: AUDIT_JSON_STREAM.textOf,
-      padTo: AUDIT_JSON_STREAM.padTo,
+    return writeJsonStreamed(file, report as unknown as Record<string, unknown>, AUDIT_JSON_STREAMED, {
+      ...AUDIT_JSON_ELEMENTS,
       ...(keys ? { keyOf: (item: unknown) => keys.get(item as ObjectAudit) } : {}),
       ...(reuse ? { reuse } : {}),
     });

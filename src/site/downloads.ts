@@ -21,12 +21,14 @@ export const AUDIT_JSON_PAD = 256;
 /** Where the full audit JSON goes in the site. */
 export const AUDIT_JSON_PATH = "downloads/audit.json";
 
-/** The options that write downloads/audit.json, streamed or whole. */
-export const AUDIT_JSON_STREAM = {
-  streamed: new Set(["objects"]) as ReadonlySet<string>,
+/** The keys of downloads/audit.json whose arrays are written element by element. */
+export const AUDIT_JSON_STREAMED: ReadonlySet<string> = new Set(["objects"]);
+
+/** How each element of those arrays is written, streamed or whole. */
+export const AUDIT_JSON_ELEMENTS = {
   padTo: AUDIT_JSON_PAD,
   textOf: (item: unknown) => auditJsonText(item as ObjectAudit),
-};
+} as const;
 
 /** The report's combined values keyed by object id (combined afresh for an object that carries none). */
 export function combinedIndex(report: AuditReport): Record<string, CombinedValues> {
@@ -83,8 +85,7 @@ export const DOWNLOADS: readonly Download[] = [
     path: AUDIT_JSON_PATH,
     title: "Full audit (every input, result, comparison and record problem)",
     format: "JSON",
-    render: (report) =>
-      jsonStreamedText(report as unknown as Record<string, unknown>, AUDIT_JSON_STREAM.streamed, { padTo: AUDIT_JSON_STREAM.padTo, textOf: AUDIT_JSON_STREAM.textOf }),
+    render: (report) => jsonStreamedText(report as unknown as Record<string, unknown>, AUDIT_JSON_STREAMED, AUDIT_JSON_ELEMENTS),
   },
   {
     key: "references_bib",

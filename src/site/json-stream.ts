@@ -1,5 +1,6 @@
-import { closeSync, fstatSync, ftruncateSync, mkdirSync, openSync, readSync, renameSync, rmSync, writeSync } from "node:fs";
+import { closeSync, fstatSync, ftruncateSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from "node:fs";
 import path from "node:path";
+import { BufferedFile } from "../cache/buffered-file.js";
 
 /**
  * Writes JSON.stringify(value) + "\n" to a file, the same value, without
@@ -227,7 +228,7 @@ function updateInPlace(
  * this thread would otherwise wait.)
  */
 export class PreparedElements {
-  private readonly out: TextFileWriter;
+  private readonly out: BufferedFile;
   private readonly segments: Segment[] = [];
   private closed = false;
 
@@ -235,15 +236,15 @@ export class PreparedElements {
     readonly file: string,
     private readonly padTo = 1,
   ) {
-    this.out = new TextFileWriter(openSync(file, "w"));
+    this.out = new BufferedFile(openSync(file, "w"), BUFFER_BYTES);
   }
 
   /** Adds the text of the element with key `key`. */
   add(key: string, text: string): void {
     if (this.closed) throw new Error("PreparedElements.add: already closed");
     const start = this.out.offset;
-    let bytes = this.out.put(text);
-    if (this.padTo > 1) bytes += this.out.put(padding(bytes, this.padTo));
+    let bytes = this.out.putText(text);
+    if (this.padTo > 1) bytes += this.out.putText(padding(bytes, this.padTo));
     this.segments.push([key, start, bytes]);
   }
 
@@ -255,62 +256,6 @@ export class PreparedElements {
       this.closed = true;
     }
     return { file: this.file, segments: this.segments };
-  }
-}
-
-/**
- * Text encoded straight into one buffer and written to `fd` whenever the
- * next piece might not fit (or read into it from another file, by `copyFrom`).
- */
-class TextFileWriter {
-  private readonly buffer = Buffer.allocUnsafe(BUFFER_BYTES);
-  private used = 0;
-  private written = 0;
-
-  constructor(readonly fd: number) {}
-
-  /** Bytes so far, written or pending. */
-  get offset(): number {
-    return this.written + this.used;
-  }
-
-  /** Adds text; returns its length in bytes. */
-  put(text: string): number {
-    // at most three UTF-8 bytes per UTF-16 code unit
-    const most = 3 * text.length;
-    if (this.used + most > BUFFER_BYTES) this.flush();
-    if (most > BUFFER_BYTES) {
-      const bytes = Buffer.from(text, "utf8");
-      this.writeAll(bytes, bytes.length);
-      return bytes.length;
-    }
-    const n = this.buffer.write(text, this.used, "utf8");
-    this.used += n;
-    return n;
-  }
-
-  /** Adds bytes [at, at + length) of the file `source` (named `name` in errors). */
-  copyFrom(source: number, name: string, at: number, length: number): void {
-    let left = length;
-    while (left > 0) {
-      if (this.used === BUFFER_BYTES) this.flush();
-      const n = readSync(source, this.buffer, this.used, Math.min(left, BUFFER_BYTES - this.used), at);
-      if (n <= 0) throw new Error(`writeJsonStreamed: ${name} is shorter than its segments say`);
-      this.used += n;
-      at += n;
-      left -= n;
-    }
-  }
-
-  flush(): void {
-    this.writeAll(this.buffer, this.used);
-    this.used = 0;
-  }
-
-  private writeAll(bytes: Buffer, length: number): void {
-    let off = 0;
-    while (off < length) off += writeSync(this.fd, bytes, off, length - off);
-    this.written += length;
   }
 }
 
@@ -363,14 +308,14 @@ export function writeJsonStreamed(
   const fd = openSync(target, "w");
   let done = false;
   try {
-    const out = new TextFileWriter(fd);
+    const out = new BufferedFile(fd, BUFFER_BYTES);
     const sink: Sink = {
       get offset() {
         return out.offset;
       },
-      put: (text) => out.put(text),
+      put: (text) => out.putText(text),
       // the element's bytes, from the earlier file through the buffer
-      copy: (old) => out.copyFrom(source!, options.reuse!.file, old[1], old[2]),
+      copy: (old) => out.copyFrom(source!, `writeJsonStreamed: ${options.reuse!.file}`, old[1], old[2]),
     };
     const walked = walk(value, streamed, options, earlier, sink);
     out.flush();

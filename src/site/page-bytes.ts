@@ -1,6 +1,9 @@
 import { randomBytes } from "node:crypto";
 import { encodedPiecesOf, renderTex, typesetEquation, type TypesetEquation } from "./katex.js";
 
+/** How many repeating equations are kept (a site has a few dozen: one per method and combination of inputs). */
+const REPEATED_LIMIT = 1024;
+
 /**
  * An object page as UTF-8 bytes, put together without making its equations
  * into strings.
@@ -21,21 +24,17 @@ import { encodedPiecesOf, renderTex, typesetEquation, type TypesetEquation } fro
  * and no other placeholder does; otherwise (a record's text holding the tag,
  * say) the caller renders the page as text.
  */
-/** How many repeating equations are kept (a site has a few dozen: one per method and combination of inputs). */
-const REPEATED_LIMIT = 1024;
-
 export class PageBytes {
   private readonly open = `\ue000${randomBytes(6).toString("hex")}#`;
   private equations: Array<TypesetEquation | Buffer> = [];
   private scratch = Buffer.allocUnsafe(1 << 20);
+  /** Equations that repeat from page to page (a method's general form): their UTF-8, by their TeX. */
+  private readonly repeated = new Map<string, Buffer>();
 
   /** Starts a page: forgets the equations of the last one. */
   begin(): void {
     this.equations = [];
   }
-
-  /** Equations that repeat from page to page (a method's general form): their UTF-8, by their TeX. */
-  private readonly repeated = new Map<string, Buffer>();
 
   /**
    * The placeholder of a display equation on this page. With `repeats`, the

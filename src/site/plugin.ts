@@ -152,12 +152,7 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
       await report(),
       path.resolve(outDir),
       cache?.reportKey !== undefined
-        ? {
-            manifest: cache.manifest,
-            reportKey: cache.reportKey,
-            ...(cache.objectKeys ? { objectKeys: cache.objectKeys } : {}),
-            ...(cache.preparedAuditJson ? { preparedAuditJson: cache.preparedAuditJson } : {}),
-          }
+        ? { ...cache, reportKey: cache.reportKey }
         : undefined,
     );
   });
