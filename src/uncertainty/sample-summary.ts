@@ -67,6 +67,12 @@ function squaredDeviations(values: Float64Array, from: number, to: number, centr
  * Buckets and sums of values[from..to): value j goes at the head of its
  * bucket's list (next[j] is the value after it, −1 at the end), and the sums
  * of (x − centre) and of its square go on into sums[0] and sums[1].
+ *
+ * Four values at a time: their four buckets are worked out before any list
+ * is touched, which lets the processor overlap the four (bench/mc-kernel.mjs
+ * shows the effect on the whole kernel). The lists and the sums are still
+ * updated value by value, in order, so every list, count and sum is the same
+ * as from the plain loop, bit for bit.
  */
 function addToBuckets(
   values: Float64Array,
@@ -83,7 +89,51 @@ function addToBuckets(
   // running sums carried over from the values before, so that the result does not depend on how they were split
   let s1 = sums[0];
   let s2 = sums[1];
-  for (let j = from; j < to; j++) {
+  let j = from;
+  for (; j + 3 < to; j += 4) {
+    const x0 = values[j];
+    const x1 = values[j + 1];
+    const x2 = values[j + 2];
+    const x3 = values[j + 3];
+    let t0 = (x0 - lo) * scale + 1;
+    let t1 = (x1 - lo) * scale + 1;
+    let t2 = (x2 - lo) * scale + 1;
+    let t3 = (x3 - lo) * scale + 1;
+    t0 = t0 < 0 ? 0 : t0 > TOP_BUCKET ? TOP_BUCKET : t0;
+    t1 = t1 < 0 ? 0 : t1 > TOP_BUCKET ? TOP_BUCKET : t1;
+    t2 = t2 < 0 ? 0 : t2 > TOP_BUCKET ? TOP_BUCKET : t2;
+    t3 = t3 < 0 ? 0 : t3 > TOP_BUCKET ? TOP_BUCKET : t3;
+    const b0 = t0 | 0;
+    const b1 = t1 | 0;
+    const b2 = t2 | 0;
+    const b3 = t3 | 0;
+    // in order: when two of the four share a bucket, the later one links to the earlier
+    next[j] = head[b0];
+    head[b0] = j;
+    counts[b0]++;
+    next[j + 1] = head[b1];
+    head[b1] = j + 1;
+    counts[b1]++;
+    next[j + 2] = head[b2];
+    head[b2] = j + 2;
+    counts[b2]++;
+    next[j + 3] = head[b3];
+    head[b3] = j + 3;
+    counts[b3]++;
+    let y = x0 - centre;
+    s1 += y;
+    s2 += y * y;
+    y = x1 - centre;
+    s1 += y;
+    s2 += y * y;
+    y = x2 - centre;
+    s1 += y;
+    s2 += y * y;
+    y = x3 - centre;
+    s1 += y;
+    s2 += y * y;
+  }
+  for (; j < to; j++) {
     const x = values[j];
     let t = (x - lo) * scale + 1;
     t = t < 0 ? 0 : t > TOP_BUCKET ? TOP_BUCKET : t;
