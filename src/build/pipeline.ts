@@ -16,7 +16,8 @@ import { DEFAULT_SET } from "../constants/sets.js";
 import type { Problem } from "../problem.js";
 import { DEFAULT_MAX_FILE_BYTES, duplicateIdProblem, fileTooLargeProblems, fileUnreadableProblems, listRecordFiles } from "../records/load.js";
 import { compareProblems, compareText } from "../records/problem-list.js";
-import { createPageRenderer, type PageSite } from "../site/page-render.js";
+import { adoptHomeRowHtml } from "../site/home-rows.js";
+import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import { objectPath } from "../site/table.js";
 import { VERSION } from "../version.js";
 import {
@@ -24,6 +25,7 @@ import {
   entryJson,
   unpackEntry,
   attachFragments,
+  attachHomeRows,
   auditEntriesParallel,
   fileProblems,
   parseFiles,
@@ -288,6 +290,9 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     toAudit.push({ file, key: known, bytes: folder.bytes[i]! });
   });
 
+  // one renderer on this thread for the pages and home rows not made on a worker, made when first needed
+  let mainRenderer: PageRenderer | undefined;
+  const renderer = (): PageRenderer => (mainRenderer ??= createPageRenderer(pages!.includesDir, pages!.site));
   // parse and audit the rest, writing their pages as they come
   const written = new Map<string, PageWritten>();
   const workers = options.workers ?? Math.max(1, availableParallelism());
@@ -296,7 +301,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     const data: RecordWorkerData = {
       options: options.audit,
       ...(options.objectJson ? { objectJson: true } : {}),
-      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site } } : {}),
+      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site, siteKey } } : {}),
       // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file
       ...(pages || options.objectJson ? { spillDir: spillFolder() } : {}),
     };
@@ -309,11 +314,15 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     const entries = parseFiles(toAudit);
     await auditEntriesParallel(entries, options.audit);
     for (const e of entries) slots[index.get(e.file)!] = e;
-    if (pages) for (const p of writeEntryPages(entries, createPageRenderer(pages.includesDir, pages.site), pages.outDir)) written.set(p.id, p);
+    if (pages) for (const p of writeEntryPages(entries, renderer(), pages.outDir)) written.set(p.id, p);
     options.onAudited?.(entries);
   }
   const entries = slots as RecordEntry[];
-  if (pages) attachFragments(entries);
+  let homeRowsMade = 0;
+  if (pages) {
+    attachFragments(entries);
+    homeRowsMade = attachHomeRows(entries, renderer, siteKey);
+  }
 
   const { report, kept, contested } = reportFromEntries(files, entries, options.audit);
 
@@ -329,6 +338,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
       if (!obj) continue;
       const rel = `${objectPath(obj.id)}index.html`;
       current.add(rel);
+      if (e.homeHtml) adoptHomeRowHtml(obj, pages.site.basePath, e.homeHtml.html);
       const key = pageKey(siteKey, e.key);
       const w = written.get(obj.id);
       // a page written for this entry, unless a duplicate of its id may have written over it
@@ -340,8 +350,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
       } else render.set(obj.id, e);
     }
     if (render.size > 0) {
-      const renderer = createPageRenderer(pages.includesDir, pages.site);
-      for (const p of writeEntryPages([...render.values()], renderer, pages.outDir)) {
+      for (const p of writeEntryPages([...render.values()], renderer(), pages.outDir)) {
         manifest?.wrote(`${objectPath(p.id)}index.html`, pageKey(siteKey, p.entryKey), p.size, p.mtimeMs);
         pagesWritten++;
       }
@@ -349,7 +358,8 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     if (manifest) pagesRemoved = manifest.removeStale("objects/", current);
   }
 
-  const unchanged = reused === entries.length && previous.size === entries.length;
+  // a cached entry whose home row was rendered again (for another site) is written back with it
+  const unchanged = reused === entries.length && previous.size === entries.length && homeRowsMade === 0;
   if (cacheFolder && !unchanged) {
     try {
       writeRecordStore(cacheFolder, entries.filter((e) => e.key !== ""), previous, ENTRY_CODEC);

@@ -26,6 +26,8 @@ export interface RecordEntry {
   audit?: { readonly object?: ObjectAudit; readonly problems: readonly Problem[] };
   /** What its object contributes to the shared pages and downloads, made where it was audited for a site build. */
   fragments?: ObjectFragments;
+  /** Its object's row of the home table as HTML, and the key of the object pages' site it was rendered for (see home-rows.ts). */
+  homeHtml?: { readonly site: string; readonly html: string };
   /** Its object's text in the JSON report of `check` (objectJsonText), made where it was audited when asked for. */
   json?: string;
   /** Where a worker wrote that text instead (UTF-8, in its spill file). */
@@ -117,6 +119,23 @@ export function writeEntryPages(entries: readonly RecordEntry[], render: PageRen
     out.push({ ...renderAndWrite(render, { obj, problems: fileProblems(e) }, outDir), entryKey: e.key });
   }
   return out;
+}
+
+/**
+ * Gives every audited entry with a home row the HTML of that row for the site
+ * whose page key is `siteKey`, rendered now unless the entry already carries
+ * it (from a worker or the cache); its fragments must be attached. Returns how
+ * many were rendered.
+ */
+export function attachHomeRows(entries: readonly RecordEntry[], render: () => PageRenderer, siteKey: string): number {
+  let made = 0;
+  for (const e of entries) {
+    const home = e.fragments?.home;
+    if (!home || e.homeHtml?.site === siteKey) continue;
+    e.homeHtml = { site: siteKey, html: render().homeRow(home) };
+    made++;
+  }
+  return made;
 }
 
 /**

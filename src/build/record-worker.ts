@@ -5,6 +5,7 @@ import type { RunOptions } from "../audit/audit-records.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import {
   attachFragments,
+  attachHomeRows,
   auditEntries,
   packEntry,
   parseFiles,
@@ -24,7 +25,8 @@ import {
 
 export interface RecordWorkerData {
   readonly options: RunOptions;
-  readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite };
+  /** For a site: where its templates and pages are, what the pages read of it, and its key (pageSiteKey). */
+  readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite; readonly siteKey: string };
   /** For a site: the folder where each worker writes the bytes of its audits (see WireEntry). */
   readonly spillDir?: string;
   /** Make each object's text in the JSON report here (see RecordEntry.json). */
@@ -57,6 +59,7 @@ if (port) {
         render ??= createPageRenderer(data.pages.includesDir, data.pages.site);
         pages = writeEntryPages(entries, render, data.pages.outDir);
         attachFragments(entries);
+        attachHomeRows(entries, () => render!, data.pages.siteKey);
       }
       // for a site, the main thread needs only each audit's summary, fragments and the place of its bytes
       if (data.spillDir) spill ??= new SpillFile(path.join(data.spillDir, `audits-${threadId}.bin`));

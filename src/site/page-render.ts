@@ -4,6 +4,7 @@ import { METHODS } from "../methods/index.js";
 import type { Problem } from "../problem.js";
 import { underBase } from "./base-path.js";
 import { objectPageView, type DisplayTex, type MethodLookup } from "./object-view.js";
+import { homeRowRendererIn, type HomeRowRenderer } from "./home-rows.js";
 import { PageBytes } from "./page-bytes.js";
 
 /**
@@ -47,6 +48,8 @@ export interface PageRenderer {
    * view that the next call may overwrite.
    */
   bytes(input: PageInput): Uint8Array;
+  /** The object's row of the home table (see home-rows.ts). */
+  homeRow: HomeRowRenderer;
 }
 
 /** A renderer with its own Nunjucks environment over `includesDir` (and its own page assembler, unless given one). */
@@ -79,5 +82,6 @@ export function createPageRenderer(includesDir: string, site: PageSite, assemble
       // a page whose text happens to hold a placeholder is rendered as text instead
       return assembler.assemble(render(input, deferred)) ?? Buffer.from(render(input), "utf8");
     },
+    homeRow: homeRowRendererIn(env, base),
   };
 }

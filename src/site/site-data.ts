@@ -2,7 +2,11 @@ import type { AuditReport, ObjectAudit } from "../audit/types.js";
 import type { Problem } from "../problem.js";
 import type { Constant } from "../constants/constant.js";
 import type { MethodDefinition } from "../methods/method.js";
+import path from "node:path";
 import { underBase } from "./base-path.js";
+import { createHomeRowRenderer, homeRowHtmlOf, type HomeRowRenderer } from "./home-rows.js";
+import { NUNJUCKS_OPTIONS } from "./page-render.js";
+import { CONTENT_DIR } from "./paths.js";
 import { constantsView, type ConstantView } from "./constants-view.js";
 import { DOWNLOADS } from "./downloads.js";
 import { fragmentsOf } from "./fragments.js";
@@ -23,6 +27,8 @@ export interface SiteData {
   readonly counts: readonly StatusCount[];
   readonly statuses: readonly StatusView[];
   readonly rows: readonly HomeRow[];
+  /** The rows as the home table's HTML (see home-rows.ts), made when first read. */
+  readonly homeRowsHtml: string;
   /** The report's objects, for one page each. */
   readonly objects: readonly ObjectAudit[];
   readonly problems: ProblemsView;
@@ -46,19 +52,32 @@ export interface SiteInputs {
   readonly constants: readonly Constant[];
   /** The previous release's audit, for the changes page. */
   readonly previous?: PreviousAudit;
+  /** Where the templates of the rows are (default: the site's own includes). */
+  readonly includesDir?: string;
 }
 
-/** homeRows(report, lookup), from each object's fragments. */
-function homeRowsOf(report: AuditReport, lookup: MethodLookup): HomeRow[] {
-  const rows: HomeRow[] = [];
+/** homeRows(report, lookup), from each object's fragments, each with its object and whether it is the fragment's own row. */
+function homeRowsOf(report: AuditReport, lookup: MethodLookup): Array<{ obj: ObjectAudit; row: HomeRow; own: boolean }> {
+  const rows: Array<{ obj: ObjectAudit; row: HomeRow; own: boolean }> = [];
   for (const o of report.objects) {
     const h = fragmentsOf(o).home;
     if (h === null) continue;
     // the fragment names methods from the registry; the site's own list decides
     const title = lookup(h.row.method)?.title ?? h.row.method;
-    rows.push(title === h.methodTitle ? h : { ...h, methodTitle: title });
+    rows.push(title === h.methodTitle ? { obj: o, row: h, own: true } : { obj: o, row: { ...h, methodTitle: title }, own: false });
   }
   return rows;
+}
+
+/** The rows' HTML: each object's own row as adopted for this base path, the others rendered now. */
+function homeRowsHtmlOf(rows: ReadonlyArray<{ obj: ObjectAudit; row: HomeRow; own: boolean }>, basePath: string, includesDir: string): string {
+  let render: HomeRowRenderer | undefined;
+  const parts: string[] = new Array(rows.length);
+  rows.forEach(({ obj, row, own }, i) => {
+    const html = own ? homeRowHtmlOf(obj, basePath) : undefined;
+    parts[i] = html ?? (render ??= createHomeRowRenderer(includesDir, basePath, NUNJUCKS_OPTIONS))(row);
+  });
+  return parts.join("");
 }
 
 export function buildSiteData(input: SiteInputs): SiteData {
@@ -66,6 +85,9 @@ export function buildSiteData(input: SiteInputs): SiteData {
   const byId = new Map(input.methods.map((m) => [m.id, m]));
   const lookup: MethodLookup = (id) => byId.get(id);
   const byFile = problemsByFile(report.problems);
+  const homeRows = homeRowsOf(report, lookup);
+  let rowsHtml: string | undefined;
+  const includesDir = input.includesDir ?? path.join(CONTENT_DIR, "_includes");
   return Object.freeze({
     basePath: input.basePath,
     version: report.tool.version,
@@ -73,7 +95,11 @@ export function buildSiteData(input: SiteInputs): SiteData {
     summary: report.summary,
     counts: statusCounts(report),
     statuses: [...STATUSES].map(statusView).sort((a, b) => b.rank - a.rank),
-    rows: homeRowsOf(report, lookup),
+    rows: homeRows.map((r) => r.row),
+    get homeRowsHtml(): string {
+      rowsHtml ??= homeRowsHtmlOf(homeRows, input.basePath, includesDir);
+      return rowsHtml;
+    },
     objects: report.objects,
     problems: problemsView(report, sortFlags(report.objects.map((o) => fragmentsOf(o).flags))),
     methods: methodsView(input.methods),
