@@ -120,8 +120,23 @@ export interface VotableRow {
   readonly valueSI: number;
   readonly plusSI: number;
   readonly minusSI: number;
+  /**
+   * The three value TDs in the row's own display unit, ready for a table
+   * whose unit is that one (most rows' case): numbers are the costly part of
+   * the text, and a row is made once per object, where it is audited.
+   */
+  readonly ownValues: string;
   /** The TD elements after the values. */
   readonly tail: string;
+}
+
+/** The three value TDs of a row in a table whose unit has `scale`. */
+function valueCells(r: Pick<VotableRow, "valueSI" | "plusSI" | "minusSI">, scale: number): string {
+  return (
+    `<TD>${cellText(r.valueSI / scale, DATATYPES[VALUE_COLUMN])}</TD>` +
+    `<TD>${cellText(r.plusSI / scale, DATATYPES[VALUE_COLUMN + 1])}</TD>` +
+    `<TD>${cellText(r.minusSI / scale, DATATYPES[VALUE_COLUMN + 2])}</TD>`
+  );
 }
 
 /** The unit most rows display; ties go to the first row by object id. */
@@ -190,15 +205,16 @@ export function votableRows(object: ObjectAudit, combined: CombinedValues): Vota
     const used = c.inputs.map((i) => byKey.get(i.key)).filter((m): m is MeasurementAudit => m !== undefined);
     const td = (cells: readonly Cell[], first: number): string =>
       cells.map((cell, i) => `<TD>${cellText(cell, DATATYPES[first + i])}</TD>`).join("");
+    const values = { valueSI: e.value_si, plusSI: e.sigma_plus_si, minusSI: e.sigma_minus_si };
     out.push({
       result,
       objectId: object.id,
       displayUnit: e.display_unit,
       unitSI: e.unit_si,
       head: td([object.id, object.name], 0),
-      valueSI: e.value_si,
-      plusSI: e.sigma_plus_si,
-      minusSI: e.sigma_minus_si,
+      ...values,
+      // as a table in this unit writes them (tableUnit: a unit not in the catalogue is no unit, scale 1)
+      ownValues: valueCells(values, findUnit(e.display_unit)?.scale ?? 1),
       tail: td(
         [
           c.count,
@@ -233,10 +249,9 @@ function tableXml(result: string, rows: readonly VotableRow[], indent: string): 
 
   const columns = tableColumns(name, inUnit, valueUnit, isMass);
 
+  const own = unit?.id;
   const trs = rows.map((r) => {
-    const values = [r.valueSI / scale, r.plusSI / scale, r.minusSI / scale]
-      .map((v, i) => `<TD>${cellText(v, DATATYPES[VALUE_COLUMN + i])}</TD>`)
-      .join("");
+    const values = own !== undefined && r.displayUnit === own ? r.ownValues : valueCells(r, scale);
     return `${indent}      <TR>${r.head}${values}${r.tail}</TR>`;
   });
 
