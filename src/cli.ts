@@ -71,29 +71,56 @@ function numberFlag(flags: Parsed["flags"], name: string): number | undefined | 
 export interface Io {
   readonly out: (text: string) => void;
   readonly err: (text: string) => void;
-  /** Writes a long output piece by piece, waiting for the reader (stdout) so it is never held whole. */
-  readonly outChunks?: (chunks: Iterable<string>) => Promise<void>;
+  /** Writes a long output piece by piece (text, or UTF-8 bytes), waiting for the reader (stdout) so it is never held whole. */
+  readonly outChunks?: (chunks: Iterable<string | Uint8Array>) => Promise<void>;
 }
 
-function writeEach(io: Io): (chunks: Iterable<string>) => Promise<void> {
+function writeEach(io: Io): (chunks: Iterable<string | Uint8Array>) => Promise<void> {
   return async (chunks) => {
-    for (const c of chunks) io.out(c);
+    for (const c of chunks) io.out(typeof c === "string" ? c : Buffer.from(c.buffer, c.byteOffset, c.byteLength).toString("utf8"));
   };
+}
+
+/** Bytes gathered before each write to stdout. */
+const OUT_BLOCK = 1 << 20;
+
+/**
+ * Writes the chunks to stdout in blocks of about a megabyte: text encoded
+ * into the block, bytes copied into it, and a chunk too long for a block
+ * written on its own. Waits for stdout to drain whenever it asks to.
+ */
+async function writeChunksToStdout(chunks: Iterable<string | Uint8Array>): Promise<void> {
+  let block = Buffer.allocUnsafe(OUT_BLOCK);
+  let used = 0;
+  const write = async (piece: string | Uint8Array): Promise<void> => {
+    if (!process.stdout.write(piece)) await new Promise<void>((resolve) => process.stdout.once("drain", () => resolve()));
+  };
+  const flush = async (): Promise<void> => {
+    if (used === 0) return;
+    // the block goes to the stream as it is, so the next one is a fresh buffer
+    const full = block.subarray(0, used);
+    block = Buffer.allocUnsafe(OUT_BLOCK);
+    used = 0;
+    await write(full);
+  };
+  for (const c of chunks) {
+    // at most three bytes per UTF-16 unit
+    const most = typeof c === "string" ? 3 * c.length : c.length;
+    if (most > OUT_BLOCK - used) await flush();
+    if (most > OUT_BLOCK) await write(c);
+    else if (typeof c === "string") used += block.write(c, used, "utf8");
+    else {
+      block.set(c, used);
+      used += c.length;
+    }
+  }
+  await flush();
 }
 
 const STD_IO: Io = {
   out: (t) => process.stdout.write(t),
   err: (t) => process.stderr.write(t),
-  outChunks: async (chunks) => {
-    let buffer = "";
-    for (const c of chunks) {
-      buffer += c;
-      if (buffer.length < 1 << 16) continue;
-      if (!process.stdout.write(buffer)) await new Promise<void>((resolve) => process.stdout.once("drain", () => resolve()));
-      buffer = "";
-    }
-    if (buffer) process.stdout.write(buffer);
-  },
+  outChunks: writeChunksToStdout,
 };
 
 export async function main(argv: readonly string[], io: Io = STD_IO): Promise<number> {

@@ -22,7 +22,7 @@ import { objectPath } from "../site/table.js";
 import { VERSION } from "../version.js";
 import {
   ENTRY_CODEC,
-  entryJson,
+  entryJsonOrBytes,
   unpackEntry,
   attachFragments,
   attachHomeRows,
@@ -96,8 +96,8 @@ export interface PipelineOutcome {
   readonly reportKey?: string;
   /** The content key of the record file of each object of the report. */
   readonly objectKeys?: ReadonlyMap<ObjectAudit, string>;
-  /** Each object's text in the JSON report, where a worker made it (see PipelineOptions.objectJson). */
-  readonly objectJson?: (obj: ObjectAudit) => string | undefined;
+  /** Each object's text in the JSON report, where a worker made it (see PipelineOptions.objectJson): a string, or its UTF-8 bytes. */
+  readonly objectJson?: (obj: ObjectAudit) => string | Uint8Array | undefined;
 }
 
 /** The settings of the report the options give (as auditRecords resolves them). */
@@ -376,9 +376,9 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     if (e.key !== "") objectKeys.set(obj, e.key);
     if (e.json !== undefined || e.jsonAt !== undefined) withJson.set(obj, e);
   }
-  const objectJson = (obj: ObjectAudit): string | undefined => {
+  const objectJson = (obj: ObjectAudit): string | Uint8Array | undefined => {
     const e = withJson.get(obj);
-    return e ? entryJson(e) : undefined;
+    return e ? entryJsonOrBytes(e) : undefined;
   };
   const out = { report, stats, objectKeys, ...(withJson.size > 0 ? { objectJson } : {}) };
   if (entries.some((e) => e.key === "")) return out;

@@ -224,9 +224,9 @@ export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
   return { ...s, audit: { problems: s.audit.problems, object: lazyAudit(s.audit.summary, () => readBlob(file, at, length), true) }, ...json };
 }
 
-/** An entry's JSON report text: made on this thread, or read back from where a worker wrote it. */
-export function entryJson(e: RecordEntry): string | undefined {
+/** An entry's JSON report text: made on this thread, or its UTF-8 bytes read back from where a worker wrote them. */
+export function entryJsonOrBytes(e: RecordEntry): string | Uint8Array | undefined {
   if (e.json !== undefined) return e.json;
   const at = e.jsonAt;
-  return at ? Buffer.from(readBlob(at.file, at.at, at.length)).toString("utf8") : undefined;
+  return at ? readBlob(at.file, at.at, at.length) : undefined;
 }

@@ -21,9 +21,15 @@ export function objectJsonText(obj: ObjectAudit): string {
 
 /**
  * The chunks; `textOf` gives an object's text (objectJsonText) when it was
- * made already, on the thread that audited it.
+ * made already, on the thread that audited it, as a string or as its UTF-8
+ * bytes (a chunk then is those bytes, written as they are: at ten thousand
+ * objects, decoding a worker's bytes only to encode them again for the output
+ * was most of what `check --json` did after the audit).
  */
-export function* reportJsonChunks(report: AuditReport, textOf?: (obj: ObjectAudit) => string | undefined): Generator<string> {
+export function* reportJsonChunks(
+  report: AuditReport,
+  textOf?: (obj: ObjectAudit) => string | Uint8Array | undefined,
+): Generator<string | Uint8Array> {
   const keys = Object.keys(report) as Array<keyof AuditReport>;
   yield "{";
   for (let k = 0; k < keys.length; k++) {
@@ -34,7 +40,13 @@ export function* reportJsonChunks(report: AuditReport, textOf?: (obj: ObjectAudi
       yield "[";
       for (let i = 0; i < value.length; i++) {
         const obj = value[i] as ObjectAudit;
-        yield `${i === 0 ? "" : ","}\n    ${textOf?.(obj) ?? objectJsonText(obj)}`;
+        const text = textOf?.(obj) ?? objectJsonText(obj);
+        if (typeof text === "string") {
+          yield `${i === 0 ? "" : ","}\n    ${text}`;
+        } else {
+          yield i === 0 ? "\n    " : ",\n    ";
+          yield text;
+        }
       }
       yield "\n  ]";
     } else {
