@@ -1,4 +1,4 @@
-import nunjucks from "nunjucks";
+import type nunjucks from "nunjucks";
 import type { ObjectAudit } from "../audit/types.js";
 import { underBase } from "./base-path.js";
 import type { HomeRow } from "./home-view.js";
@@ -35,10 +35,6 @@ export function homeRowRendererIn(env: nunjucks.Environment, basePath: string): 
   };
 }
 
-/** A row renderer with its own environment over `includesDir`, with the options of the object pages' renderer. */
-export function createHomeRowRenderer(includesDir: string, basePath: string, options: nunjucks.ConfigureOptions): HomeRowRenderer {
-  return homeRowRendererIn(new nunjucks.Environment(new nunjucks.FileSystemLoader(includesDir), { ...options }), basePath);
-}
 
 /**
  * Rows rendered for an object and the base path they were rendered under,

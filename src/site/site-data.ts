@@ -4,8 +4,8 @@ import type { Constant } from "../constants/constant.js";
 import type { MethodDefinition } from "../methods/method.js";
 import path from "node:path";
 import { underBase } from "./base-path.js";
-import { createHomeRowRenderer, homeRowHtmlOf, type HomeRowRenderer } from "./home-rows.js";
-import { NUNJUCKS_OPTIONS } from "./page-render.js";
+import { homeRowHtmlOf, type HomeRowRenderer } from "./home-rows.js";
+import { createPageRenderer } from "./page-render.js";
 import { CONTENT_DIR } from "./paths.js";
 import { constantsView, type ConstantView } from "./constants-view.js";
 import { DOWNLOADS } from "./downloads.js";
@@ -70,12 +70,12 @@ function homeRowsOf(report: AuditReport, lookup: MethodLookup): Array<{ obj: Obj
 }
 
 /** The rows' HTML: each object's own row as adopted for this base path, the others rendered now. */
-function homeRowsHtmlOf(rows: ReadonlyArray<{ obj: ObjectAudit; row: HomeRow; own: boolean }>, basePath: string, includesDir: string): string {
+function homeRowsHtmlOf(rows: ReadonlyArray<{ obj: ObjectAudit; row: HomeRow; own: boolean }>, basePath: string, renderer: () => HomeRowRenderer): string {
   let render: HomeRowRenderer | undefined;
   const parts: string[] = new Array(rows.length);
   rows.forEach(({ obj, row, own }, i) => {
     const html = own ? homeRowHtmlOf(obj, basePath) : undefined;
-    parts[i] = html ?? (render ??= createHomeRowRenderer(includesDir, basePath, NUNJUCKS_OPTIONS))(row);
+    parts[i] = html ?? (render ??= renderer())(row);
   });
   return parts.join("");
 }
@@ -97,7 +97,9 @@ export function buildSiteData(input: SiteInputs): SiteData {
     statuses: [...STATUSES].map(statusView).sort((a, b) => b.rank - a.rank),
     rows: homeRows.map((r) => r.row),
     get homeRowsHtml(): string {
-      rowsHtml ??= homeRowsHtmlOf(homeRows, input.basePath, includesDir);
+      // the rows no build worker made go through the object pages' renderer, as on a worker
+      const site = { basePath: input.basePath, version: report.tool.version, settings: report.settings, hasChanges: input.previous !== undefined };
+      rowsHtml ??= homeRowsHtmlOf(homeRows, input.basePath, () => createPageRenderer(includesDir, site).homeRow);
       return rowsHtml;
     },
     objects: report.objects,

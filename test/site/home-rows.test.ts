@@ -7,8 +7,8 @@ import type { AuditReport } from "../../src/audit/types.js";
 import { ALL_CONSTANTS } from "../../src/constants/sets.js";
 import { METHODS } from "../../src/methods/index.js";
 import { fragmentsOf } from "../../src/site/fragments.js";
-import { adoptHomeRowHtml, createHomeRowRenderer, homeRowHtmlOf } from "../../src/site/home-rows.js";
-import { NUNJUCKS_OPTIONS } from "../../src/site/page-render.js";
+import { adoptHomeRowHtml, homeRowHtmlOf } from "../../src/site/home-rows.js";
+import { createPageRenderer, NUNJUCKS_OPTIONS } from "../../src/site/page-render.js";
 import { CONTENT_DIR } from "../../src/site/paths.js";
 import { buildSiteData } from "../../src/site/site-data.js";
 
@@ -42,6 +42,11 @@ function inOneLoop(rows: unknown[], basePath: string): string {
   return new nunjucks.Template(loop, env).render({ rows, steelyard });
 }
 
+/** The object pages' renderer's home rows, links under `basePath`. */
+function rowRenderer(basePath: string) {
+  return createPageRenderer(INCLUDES, { basePath, version: "test", settings: report.settings, hasChanges: false }).homeRow;
+}
+
 describe("home rows rendered one object at a time", () => {
   it("are the text one loop over all rows gives, under the root and under a base path", () => {
     for (const base of ["/", "/mass-audit/"]) {
@@ -54,7 +59,7 @@ describe("home rows rendered one object at a time", () => {
 
   it("are taken as adopted for the same base path, and rendered again for another", () => {
     const r = copied(report);
-    const render = createHomeRowRenderer(INCLUDES, "/", NUNJUCKS_OPTIONS);
+    const render = rowRenderer("/");
     const fresh = buildSiteData({ report: copied(report), basePath: "/", methods: METHODS, constants: ALL_CONSTANTS }).homeRowsHtml;
     // a marked row stands in for each adopted one, to see which are used
     for (const o of r.objects) {
@@ -72,7 +77,7 @@ describe("home rows rendered one object at a time", () => {
 
   it("are rendered again with the site's own method titles", () => {
     const r = copied(report);
-    const render = createHomeRowRenderer(INCLUDES, "/", NUNJUCKS_OPTIONS);
+    const render = rowRenderer("/");
     for (const o of r.objects) {
       const home = fragmentsOf(o).home;
       if (home) adoptHomeRowHtml(o, "/", render(home));
