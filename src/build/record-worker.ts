@@ -2,6 +2,7 @@ import path from "node:path";
 import { parentPort, threadId, workerData } from "node:worker_threads";
 import { objectJsonText } from "../report/json-report.js";
 import type { RunOptions } from "../audit/audit-records.js";
+import { importShapes, takeLearnedShapes, type KeptShape } from "../site/katex.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import {
   attachFragments,
@@ -27,6 +28,8 @@ export interface RecordWorkerData {
   readonly options: RunOptions;
   /** For a site: where its templates and pages are, what the pages read of it, and its key (pageSiteKey). */
   readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite; readonly siteKey: string };
+  /** For a site: the equation shapes the main thread knows (see katex.ts), so that none is typeset again here. */
+  readonly equations?: readonly KeptShape[];
   /** For a site: the folder where each worker writes the bytes of its audits (see WireEntry). */
   readonly spillDir?: string;
   /** Make each object's text in the JSON report here (see RecordEntry.json). */
@@ -36,7 +39,14 @@ export interface RecordWorkerData {
 export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
 
 export type RecordWorkerReply =
-  | { readonly kind: "done"; readonly batch: number; readonly entries: ReadonlyArray<RecordEntry | WireEntry>; readonly pages: readonly PageWritten[] }
+  | {
+      readonly kind: "done";
+      readonly batch: number;
+      readonly entries: ReadonlyArray<RecordEntry | WireEntry>;
+      readonly pages: readonly PageWritten[];
+      /** Equation shapes learned here since the last batch, for the main thread to know and keep. */
+      readonly shapes: readonly KeptShape[];
+    }
   | { readonly kind: "failed"; readonly batch: number; readonly message: string };
 
 const port = parentPort;
@@ -44,6 +54,7 @@ if (port) {
   const data = workerData as RecordWorkerData;
   let render: PageRenderer | undefined;
   let spill: SpillFile | undefined;
+  if (data.equations) importShapes(data.equations);
   port.on("message", (msg: RecordWorkerRequest) => {
     if (msg.kind === "end") {
       spill?.close();
@@ -64,7 +75,7 @@ if (port) {
       // for a site, the main thread needs only each audit's summary, fragments and the place of its bytes
       if (data.spillDir) spill ??= new SpillFile(path.join(data.spillDir, `audits-${threadId}.bin`));
       const wire = spill ? entries.map((e) => packEntry(e, spill!)) : entries;
-      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages } satisfies RecordWorkerReply);
+      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages, shapes: takeLearnedShapes() } satisfies RecordWorkerReply);
     } catch (e) {
       const error = e as Error;
       port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies RecordWorkerReply);

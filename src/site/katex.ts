@@ -1,4 +1,4 @@
-import katex from "katex";
+import { createRequire } from "node:module";
 import { probeTex, splice, templateOf, texSkeleton, type SpliceTemplate } from "./tex-skeleton.js";
 
 /**
@@ -18,6 +18,11 @@ import { probeTex, splice, templateOf, texSkeleton, type SpliceTemplate } from "
  * it equals KaTeX's output for the same shape with one-digit numbers (which
  * catches layouts that depend on how many digits a number has). Shapes that
  * fail are typeset directly each time, with a bounded memo of whole strings.
+ *
+ * The shapes a build learned can be kept between builds (exportShapes,
+ * importShapes; equation-store.ts keeps them in the cache folder), so that a
+ * rebuild whose equations all have known shapes never runs KaTeX, nor even
+ * loads it: KaTeX is loaded on the first equation it has to typeset.
  */
 const OPTIONS = {
   throwOnError: true,
@@ -43,6 +48,24 @@ const directMemo = new Map<string, string>();
 
 let typesetCount = 0;
 
+type Katex = typeof import("katex").default;
+let katexModule: Katex | undefined;
+
+/** KaTeX, loaded when first needed (its CommonJS build: the same code as its ES module, loaded synchronously). */
+function katex(): Katex {
+  katexModule ??= createRequire(import.meta.url)("katex") as Katex;
+  return katexModule;
+}
+
+/** The KaTeX version that typesets here, and the options it is given: what a kept shape depends on besides this code. */
+export function typesetterId(): string {
+  const { version } = createRequire(import.meta.url)("katex/package.json") as { version: string };
+  return JSON.stringify({ katex: version, options: OPTIONS });
+}
+
+/** Shapes learned on this thread and not yet handed out by takeLearnedShapes, by key. */
+const learned = new Set<string>();
+
 function remember<V>(map: Map<string, V>, limit: number, key: string, value: V): void {
   if (map.size >= limit) {
     const oldest = map.keys().next().value;
@@ -63,7 +86,7 @@ function typeset(tex: string, displayMode: boolean): { ok: true; html: string } 
   typesetCount++;
   let html: string;
   try {
-    html = katex.renderToString(tex, { ...OPTIONS, trust, displayMode });
+    html = katex().renderToString(tex, { ...OPTIONS, trust, displayMode });
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     return {
@@ -124,9 +147,10 @@ export function typesetEquation(tex: string, displayMode = false): TypesetEquati
   }
   // A new shape: the equation itself first, so that bad TeX fails with its own message.
   const html = typesetOrThrow(tex, displayMode);
-  const learned: Shape = runs.length === 0 ? { kind: "splice", template: { pieces: [html], slots: [] } } : learnShape(skeleton, runs, html, displayMode);
-  remember(shapes, SHAPE_LIMIT, key, learned);
-  if (learned.kind === "direct") remember(directMemo, DIRECT_MEMO_LIMIT, (displayMode ? "D" : "I") + tex, html);
+  const shapeOf: Shape = runs.length === 0 ? { kind: "splice", template: { pieces: [html], slots: [] } } : learnShape(skeleton, runs, html, displayMode);
+  remember(shapes, SHAPE_LIMIT, key, shapeOf);
+  if (shapeOf.kind === "direct") remember(directMemo, DIRECT_MEMO_LIMIT, (displayMode ? "D" : "I") + tex, html);
+  else learned.add(key);
   return { kind: "whole", html };
 }
 
@@ -145,6 +169,66 @@ export function encodedPiecesOf(template: SpliceTemplate): readonly Buffer[] {
     encodedPieces.set(template, out);
   }
   return out;
+}
+
+/**
+ * A shape that can be spliced, as kept between runs: its key (display mode
+ * and skeleton) and its template. Plain data, for JSON and for worker messages.
+ */
+export interface KeptShape {
+  readonly key: string;
+  readonly pieces: readonly string[];
+  readonly slots: readonly number[];
+}
+
+function keptShape(key: string, template: SpliceTemplate): KeptShape {
+  return { key, pieces: template.pieces, slots: template.slots };
+}
+
+/** Every shape this thread can splice. */
+export function exportShapes(): KeptShape[] {
+  const out: KeptShape[] = [];
+  for (const [key, shape] of shapes) if (shape.kind === "splice") out.push(keptShape(key, shape.template));
+  return out;
+}
+
+/**
+ * The shapes learned on this thread since the last call (typeset and checked
+ * here, not imported), so that another thread can import them.
+ */
+export function takeLearnedShapes(): KeptShape[] {
+  const out: KeptShape[] = [];
+  for (const key of learned) {
+    const shape = shapes.get(key);
+    if (shape?.kind === "splice") out.push(keptShape(key, shape.template));
+  }
+  learned.clear();
+  return out;
+}
+
+/**
+ * Adds shapes that another run or thread of this same code and typesetter
+ * learned (see typesetterId); shapes known already are left as they are.
+ * Each is checked for form (as many slots as pieces less one, every slot a
+ * marker index its skeleton has); returns how many were added.
+ */
+export function importShapes(kept: readonly KeptShape[]): number {
+  let added = 0;
+  for (const k of kept) {
+    if (shapes.has(k.key) || !wellFormed(k)) continue;
+    remember(shapes, SHAPE_LIMIT, k.key, { kind: "splice", template: { pieces: [...k.pieces], slots: [...k.slots] } });
+    added++;
+  }
+  return added;
+}
+
+function wellFormed(k: KeptShape): boolean {
+  if (typeof k.key !== "string" || (k.key[0] !== "D" && k.key[0] !== "I")) return false;
+  if (!Array.isArray(k.pieces) || !Array.isArray(k.slots) || k.pieces.length !== k.slots.length + 1) return false;
+  if (!k.pieces.every((p) => typeof p === "string")) return false;
+  // the skeleton's own numbers are its markers: an equation of this shape has as many
+  const markers = texSkeleton(k.key.slice(1)).runs.length;
+  return k.slots.every((i) => Number.isInteger(i) && i >= 0 && i < markers);
 }
 
 /** How many times KaTeX itself ran since the process started (three times for each new shape with numbers). */

@@ -1,4 +1,5 @@
 import { parentPort, workerData } from "node:worker_threads";
+import { importShapes, takeLearnedShapes, type KeptShape } from "./katex.js";
 import { createPageRenderer, type PageInput, type PageSite } from "./page-render.js";
 import { renderAndWrite, type WrittenPage } from "./page-writer.js";
 
@@ -11,17 +12,26 @@ export interface PageWorkerData {
   readonly includesDir: string;
   readonly outDir: string;
   readonly site: PageSite;
+  /** The equation shapes the main thread knows (see katex.ts), so that none is typeset again here. */
+  readonly equations?: readonly KeptShape[];
 }
 
 export type PageWorkerRequest = { readonly kind: "pages"; readonly batch: number; readonly pages: readonly PageInput[] } | { readonly kind: "end" };
 
 export type PageWorkerReply =
-  | { readonly kind: "written"; readonly batch: number; readonly pages: readonly WrittenPage[] }
+  | {
+      readonly kind: "written";
+      readonly batch: number;
+      readonly pages: readonly WrittenPage[];
+      /** Equation shapes learned here since the last batch, for the main thread to know. */
+      readonly shapes: readonly KeptShape[];
+    }
   | { readonly kind: "failed"; readonly batch: number; readonly message: string };
 
 const port = parentPort;
 if (port) {
   const data = workerData as PageWorkerData;
+  if (data.equations) importShapes(data.equations);
   const render = createPageRenderer(data.includesDir, data.site);
   port.on("message", (msg: PageWorkerRequest) => {
     if (msg.kind === "end") {
@@ -30,7 +40,7 @@ if (port) {
     }
     try {
       const pages = msg.pages.map((p) => renderAndWrite(render, p, data.outDir));
-      port.postMessage({ kind: "written", batch: msg.batch, pages } satisfies PageWorkerReply);
+      port.postMessage({ kind: "written", batch: msg.batch, pages, shapes: takeLearnedShapes() } satisfies PageWorkerReply);
     } catch (e) {
       const error = e as Error;
       port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies PageWorkerReply);

@@ -5,6 +5,7 @@ import { realAudit } from "../cache/lazy-audit.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import type { Problem } from "../problem.js";
 import type { PageWorkerData, PageWorkerReply, PageWorkerRequest } from "./object-page-worker.js";
+import { exportShapes, importShapes } from "./katex.js";
 import { createPageRenderer, type PageInput, type PageSite } from "./page-render.js";
 import { renderAndWrite, type WrittenPage } from "./page-writer.js";
 import { objectPath } from "./table.js";
@@ -64,6 +65,7 @@ function renderOnWorkers(url: URL, count: number, data: PageWorkerData, inputs: 
     inFlight: IN_FLIGHT,
     request: (batch, pages) => ({ kind: "pages", batch, pages }) satisfies PageWorkerRequest,
     onReply: (reply) => {
+      importShapes(reply.shapes);
       for (const p of reply.pages) onWritten(p);
     },
     name: "object page worker",
@@ -95,7 +97,7 @@ export async function writeObjectPages(options: ObjectPagesOptions): Promise<Obj
   const workers = options.workers ?? Math.max(1, availableParallelism());
   const url = workers > 0 && todo.length >= (options.minPagesForWorkers ?? 200) ? pageWorkerUrl() : undefined;
   if (url) {
-    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site }, todo, onWritten);
+    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site, equations: exportShapes() }, todo, onWritten);
   } else {
     const render = createPageRenderer(options.includesDir, options.site);
     for (const input of todo) onWritten(renderAndWrite(render, input, outDir));
