@@ -17,6 +17,7 @@ import type { Problem } from "../problem.js";
 import { DEFAULT_MAX_FILE_BYTES, duplicateIdProblem, fileTooLargeProblems, fileUnreadableProblems, listRecordFiles } from "../records/load.js";
 import { compareProblems, compareText } from "../records/problem-list.js";
 import { adoptHomeRowHtml } from "../site/home-rows.js";
+import { exportTemplates, importTemplates } from "../site/compiled-templates.js";
 import { exportShapes, importShapes } from "../site/katex.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import { objectPath } from "../site/table.js";
@@ -153,6 +154,7 @@ function auditOnWorkers(
     request: (batch, items) => ({ kind: "files", batch, files: items }) satisfies RecordWorkerRequest,
     onReply: (reply) => {
       importShapes(reply.shapes);
+      importTemplates(reply.templates);
       onDone(reply.entries.map(unpackEntry), reply.pages);
     },
     name: "build worker",
@@ -305,7 +307,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     const data: RecordWorkerData = {
       options: options.audit,
       ...(options.objectJson ? { objectJson: true } : {}),
-      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site, siteKey }, equations: exportShapes() } : {}),
+      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site, siteKey }, equations: exportShapes(), templates: exportTemplates() } : {}),
       // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file
       ...(pages || options.objectJson ? { spillDir: spillFolder() } : {}),
     };

@@ -23,7 +23,7 @@ import { PreparedElements, type ReuseBytes } from "./json-stream.js";
 import { AUDIT_JSON_PAD, AUDIT_JSON_PATH } from "./downloads.js";
 import { auditJsonText } from "../cache/lazy-audit.js";
 import type { RecordEntry } from "../build/record-work.js";
-import { loadEquationStore, saveEquationStore } from "./equation-store.js";
+import { loadRenderStore, saveRenderStore } from "./render-store.js";
 
 export interface BuildSiteOptions {
   readonly recordsDir: string;
@@ -196,8 +196,8 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
   }
 
   const previous = options.compareTo !== undefined ? readPreviousAudit(options.compareTo) : undefined;
-  // the equation shapes of earlier builds: with them, this build runs KaTeX only for a new shape
-  const equations = cacheDir !== undefined ? loadEquationStore(cacheDir) : undefined;
+  // the equation shapes and compiled templates of earlier builds: this build typesets and compiles only what is new
+  const rendering = cacheDir !== undefined ? loadRenderStore(cacheDir) : undefined;
   // Eleventy's modules load while the workers audit (this thread waits on them then); renderSite imports the same module
   importEleventy().catch(() => undefined);
   // With nothing to copy from the last build's audit JSON, each audited object's text in it is made
@@ -239,7 +239,7 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
   }
   const { report } = run;
   // with what this thread typeset and the workers sent (the site's other pages are written by now)
-  if (equations) saveEquationStore(equations);
+  if (rendering) saveRenderStore(rendering);
   const told: BuildTold = {
     pages,
     summary: report.summary,

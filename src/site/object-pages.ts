@@ -5,6 +5,7 @@ import { realAudit } from "../cache/lazy-audit.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import type { Problem } from "../problem.js";
 import type { PageWorkerData, PageWorkerReply, PageWorkerRequest } from "./object-page-worker.js";
+import { exportTemplates, importTemplates } from "./compiled-templates.js";
 import { exportShapes, importShapes } from "./katex.js";
 import { createPageRenderer, type PageInput, type PageSite } from "./page-render.js";
 import { renderAndWrite, type WrittenPage } from "./page-writer.js";
@@ -66,6 +67,7 @@ function renderOnWorkers(url: URL, count: number, data: PageWorkerData, inputs: 
     request: (batch, pages) => ({ kind: "pages", batch, pages }) satisfies PageWorkerRequest,
     onReply: (reply) => {
       importShapes(reply.shapes);
+      importTemplates(reply.templates);
       for (const p of reply.pages) onWritten(p);
     },
     name: "object page worker",
@@ -97,7 +99,7 @@ export async function writeObjectPages(options: ObjectPagesOptions): Promise<Obj
   const workers = options.workers ?? Math.max(1, availableParallelism());
   const url = workers > 0 && todo.length >= (options.minPagesForWorkers ?? 200) ? pageWorkerUrl() : undefined;
   if (url) {
-    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site, equations: exportShapes() }, todo, onWritten);
+    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site, equations: exportShapes(), templates: exportTemplates() }, todo, onWritten);
   } else {
     const render = createPageRenderer(options.includesDir, options.site);
     for (const input of todo) onWritten(renderAndWrite(render, input, outDir));

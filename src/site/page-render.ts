@@ -4,6 +4,7 @@ import { METHODS } from "../methods/index.js";
 import type { Problem } from "../problem.js";
 import { underBase } from "./base-path.js";
 import { objectPageView, type DisplayTex, type MethodLookup } from "./object-view.js";
+import { compiledTemplateLoader } from "./compiled-templates.js";
 import { homeRowRendererIn, type HomeRowRenderer } from "./home-rows.js";
 import { PageBytes } from "./page-bytes.js";
 
@@ -54,7 +55,8 @@ export interface PageRenderer {
 
 /** A renderer with its own Nunjucks environment over `includesDir` (and its own page assembler, unless given one). */
 export function createPageRenderer(includesDir: string, site: PageSite, assembler: PageBytes = new PageBytes()): PageRenderer {
-  const env = new nunjucks.Environment(new nunjucks.FileSystemLoader(includesDir), { ...NUNJUCKS_OPTIONS });
+  // no filters or extensions are added to this environment: its templates can come compiled (see compiled-templates.ts)
+  const env = new nunjucks.Environment(compiledTemplateLoader(includesDir, NUNJUCKS_OPTIONS), { ...NUNJUCKS_OPTIONS });
   const body = env.getTemplate("object-page.njk", true);
   const layout = env.getTemplate("base.njk", true);
   const byId = new Map(METHODS.map((m) => [m.id, m]));

@@ -13,7 +13,7 @@ const REFERENCE_OPTIONS = { throwOnError: true, strict: "error", trust: false, o
 
 const temp: string[] = [];
 function tempDir(label: string): string {
-  const d = mkdtempSync(path.join(os.tmpdir(), `steelyard-equations-${label}-`));
+  const d = mkdtempSync(path.join(os.tmpdir(), `steelyard-render-store-${label}-`));
   temp.push(d);
   return d;
 }
@@ -22,32 +22,34 @@ afterAll(() => {
 });
 
 type Adapter = typeof import("../../src/site/katex.js");
-type Store = typeof import("../../src/site/equation-store.js");
+type Store = typeof import("../../src/site/render-store.js");
+type Templates = typeof import("../../src/site/compiled-templates.js");
 
 /** A fresh KaTeX adapter and store, as a new process has them: no shape known. */
-async function freshModules(): Promise<{ k: Adapter; store: Store }> {
+async function freshModules(): Promise<{ k: Adapter; store: Store; t: Templates }> {
   vi.resetModules();
   const k = await import("../../src/site/katex.js");
-  const store = await import("../../src/site/equation-store.js");
-  return { k, store };
+  const store = await import("../../src/site/render-store.js");
+  const t = await import("../../src/site/compiled-templates.js");
+  return { k, store, t };
 }
 
 const shape = (a: string, p: string) => `\\mathcal{G}M = \\frac{4\\pi^{2}\\,\\left(${a}\\,\\mathrm{AU}\\right)^{3}}{\\left(${p}\\,\\mathrm{yr}\\right)^{2}}`;
 const GENERAL = "M_{\\mathrm{tot}} = \\frac{a^{n}}{P^{m}}"; // no number in it: one KaTeX run
 
-describe("the equation shapes kept between builds", () => {
+describe("the equation shapes and compiled templates kept between builds", () => {
   it("lets a new process splice a known shape without running KaTeX, with KaTeX's own bytes", async () => {
     const cacheDir = tempDir("keep");
     const first = await freshModules();
-    const loaded = first.store.loadEquationStore(cacheDir);
+    const loaded = first.store.loadRenderStore(cacheDir);
     expect(loaded.known.size).toBe(0);
     first.k.renderTex(shape("1.496", "3.156"), true);
     first.k.renderTex(GENERAL, true);
     expect(first.k.katexTypesetCount()).toBe(4); // the equation, its skeleton and its probe; the general form once
-    expect(first.store.saveEquationStore(loaded)).toBe(true);
+    expect(first.store.saveRenderStore(loaded)).toBe(true);
 
     const second = await freshModules();
-    const again = second.store.loadEquationStore(cacheDir);
+    const again = second.store.loadRenderStore(cacheDir);
     expect(again.known.size).toBe(2);
     const numbers: Array<[string, string]> = [
       ["2.5", "4.1"],
@@ -59,26 +61,26 @@ describe("the equation shapes kept between builds", () => {
     expect(second.k.renderTex(GENERAL, true)).toBe(katex.renderToString(GENERAL, { ...REFERENCE_OPTIONS, displayMode: true }));
     expect(second.k.katexTypesetCount()).toBe(0);
     // nothing new: the file is left alone
-    expect(second.store.saveEquationStore(again)).toBe(false);
+    expect(second.store.saveRenderStore(again)).toBe(false);
     // a new shape is added to what the file held
     second.k.renderTex("a = 1", false);
-    expect(second.store.saveEquationStore(again)).toBe(true);
+    expect(second.store.saveRenderStore(again)).toBe(true);
     const third = await freshModules();
-    expect(third.store.loadEquationStore(cacheDir).known.size).toBe(3);
+    expect(third.store.loadRenderStore(cacheDir).known.size).toBe(3);
   });
 
   it("ignores a file written under another key, or whose shapes do not match their digest", async () => {
     const cacheDir = tempDir("refuse");
     const a = await freshModules();
-    const store = a.store.loadEquationStore(cacheDir);
+    const store = a.store.loadRenderStore(cacheDir);
     a.k.renderTex(GENERAL, true);
-    a.store.saveEquationStore(store);
-    const good = JSON.parse(readFileSync(store.file, "utf8")) as { key: string; digest: string; shapes: Array<{ pieces: string[] }> };
+    a.store.saveRenderStore(store);
+    const good = JSON.parse(readFileSync(store.file, "utf8")) as { key: string; digest: string; shapes: Array<{ pieces: string[] }>; templates: unknown[] };
 
     // another tool or KaTeX version
     writeFileSync(store.file, JSON.stringify({ ...good, key: "0".repeat(40) }));
     let b = await freshModules();
-    expect(b.store.loadEquationStore(cacheDir).known.size).toBe(0);
+    expect(b.store.loadRenderStore(cacheDir).known.size).toBe(0);
     expect(b.k.renderTex(GENERAL, true)).toBe(katex.renderToString(GENERAL, { ...REFERENCE_OPTIONS, displayMode: true }));
     expect(b.k.katexTypesetCount()).toBe(1);
 
@@ -86,13 +88,44 @@ describe("the equation shapes kept between builds", () => {
     const changed = { ...good, shapes: good.shapes.map((s) => ({ ...s, pieces: s.pieces.map((p) => p.replace("katex", "other")) })) };
     writeFileSync(store.file, JSON.stringify(changed));
     b = await freshModules();
-    expect(b.store.loadEquationStore(cacheDir).known.size).toBe(0);
+    expect(b.store.loadRenderStore(cacheDir).known.size).toBe(0);
 
     // not JSON at all
     writeFileSync(store.file, "{ half a file");
     b = await freshModules();
-    expect(b.store.loadEquationStore(cacheDir).known.size).toBe(0);
+    expect(b.store.loadRenderStore(cacheDir).known.size).toBe(0);
     expect(b.k.renderTex(GENERAL, true)).toBe(katex.renderToString(GENERAL, { ...REFERENCE_OPTIONS, displayMode: true }));
+  });
+
+  it("renders a template from its kept code as from its text, and compiles it only once per text", async () => {
+    const dir = tempDir("templates");
+    const file = path.join(dir, "t.njk");
+    writeFileSync(file, "{% for x in xs %}<li>{{ x | upper }}</li>\n{% endfor %}{% include 'p.njk' %}");
+    writeFileSync(path.join(dir, "p.njk"), "<p>{{ xs | length }} & {{ '<b>' }}</p>");
+    const options = { autoescape: true, trimBlocks: true, lstripBlocks: true, throwOnUndefined: false };
+    const nunjucks = (await import("nunjucks")).default;
+    const plain = new nunjucks.Environment(new nunjucks.FileSystemLoader(dir), options).getTemplate("t.njk", true).render({ xs: ["a", "b<"] });
+    expect(plain).toContain("&lt;b&gt;");
+
+    const a = await freshModules();
+    const rendered = new nunjucks.Environment(a.t.compiledTemplateLoader(dir, options), options).getTemplate("t.njk", true).render({ xs: ["a", "b<"] });
+    expect(rendered).toBe(plain);
+    const kept = a.t.takeLearnedTemplates();
+    expect(kept).toHaveLength(2);
+    expect(a.t.takeLearnedTemplates()).toEqual([]);
+
+    // a new thread or process given the code compiles nothing
+    const b = await freshModules();
+    expect(b.t.importTemplates(kept)).toBe(2);
+    const again = new nunjucks.Environment(b.t.compiledTemplateLoader(dir, options), options).getTemplate("t.njk", true).render({ xs: ["a", "b<"] });
+    expect(again).toBe(plain);
+    expect(b.t.takeLearnedTemplates()).toEqual([]);
+    // an edited template is another key: compiled anew, and the page follows the edit
+    writeFileSync(path.join(dir, "p.njk"), "<p>{{ xs | first }}</p>");
+    const edited = new nunjucks.Environment(b.t.compiledTemplateLoader(dir, options), options).getTemplate("t.njk", true).render({ xs: ["a", "b<"] });
+    expect(edited).toBe(new nunjucks.Environment(new nunjucks.FileSystemLoader(dir), options).getTemplate("t.njk", true).render({ xs: ["a", "b<"] }));
+    expect(edited).toContain("<p>a</p>");
+    expect(b.t.takeLearnedTemplates()).toHaveLength(1);
   });
 
   it("refuses shapes that are not well formed", async () => {
@@ -116,8 +149,10 @@ describe("the equation shapes kept between builds", () => {
     const cacheDir = tempDir("cli-cache");
     const first = tempDir("first-site");
     execFileSync(process.execPath, [CLI, "build", DEMO, "--out", first, "--cache-dir", cacheDir, "--exit-zero", "--quiet", "--draws", "300"]);
-    const kept = JSON.parse(readFileSync(path.join(cacheDir, "equations.json"), "utf8")) as { shapes: unknown[] };
+    const kept = JSON.parse(readFileSync(path.join(cacheDir, "render-store.json"), "utf8")) as { shapes: unknown[]; templates: unknown[] };
     expect(kept.shapes.length).toBeGreaterThan(20);
+    // the object page, its layout and the partials it and the home rows include
+    expect(kept.templates.length).toBeGreaterThanOrEqual(4);
     // another output folder: every page is rendered again, in a new process, from the kept shapes
     const second = tempDir("second-site");
     execFileSync(process.execPath, [CLI, "build", DEMO, "--out", second, "--cache-dir", cacheDir, "--exit-zero", "--quiet", "--draws", "300"]);
