@@ -1,4 +1,4 @@
-import { closeSync, fstatSync, mkdtempSync, openSync, readSync, rmSync, statSync } from "node:fs";
+import { closeSync, fstatSync, mkdtempSync, openSync, readSync, rmSync, statSync, type BigIntStats } from "node:fs";
 import os, { availableParallelism } from "node:os";
 import path from "node:path";
 import { compiledWorkerUrl, runBatches } from "../workers/batch-pool.js";
@@ -8,6 +8,7 @@ import { runAudit } from "../audit/run.js";
 import { STATUSES, type AuditReport, type ObjectAudit, type Status } from "../audit/types.js";
 import { cacheFileFor } from "../cache/cache-dir.js";
 import { readRecordStore, writeRecordStore } from "../cache/record-store.js";
+import { StatIndex } from "../cache/stat-index.js";
 import { digest } from "../cache/digest.js";
 import { summaryOf } from "../cache/lazy-audit.js";
 import { folderDigest, toolFingerprint } from "../cache/fingerprint.js";
@@ -169,7 +170,7 @@ export interface FolderKeys {
   readonly shared: string;
   /** Per file, its key, or the entry made without parsing it (over the size limit, unreadable). */
   readonly keys: ReadonlyArray<string | RecordEntry>;
-  /** Per file with a key, the bytes it was made from (kept so that a file to audit is not read twice). */
+  /** Per file with a key, the bytes it was made from (kept so that a file to audit is not read twice); undefined when the key came from the stat index. */
   readonly bytes: ReadonlyArray<Buffer | undefined>;
   /** The key of the whole report; undefined when a file could not be read. */
   readonly reportKey?: string;
@@ -209,8 +210,13 @@ function readWhole(file: string, limit: number): Buffer | number {
   }
 }
 
-/** Reads and keys every record file of `recordsDir`; undefined when it is not a readable folder. */
-export async function keyRecordFolder(recordsDir: string, audit: RunOptions): Promise<FolderKeys | undefined> {
+/**
+ * Reads and keys every record file of `recordsDir`; undefined when it is not a
+ * readable folder. With `cacheDir`, a file whose stats are those it had when
+ * last keyed takes its key from the stat index there (src/cache/stat-index.ts)
+ * without being read; its bytes are then not in FolderKeys.bytes.
+ */
+export async function keyRecordFolder(recordsDir: string, audit: RunOptions, cacheDir?: string): Promise<FolderKeys | undefined> {
   const dir = path.resolve(recordsDir);
   if (!isFolder(dir)) return undefined;
   let files: string[];
@@ -220,12 +226,29 @@ export async function keyRecordFolder(recordsDir: string, audit: RunOptions): Pr
     return undefined;
   }
   const shared = settingsKey(audit);
+  const index = cacheDir !== undefined ? new StatIndex(cacheFileFor(cacheDir, "stats", dir).replace(/\.bin$/, ".json"), shared) : undefined;
   const bytes: Array<Buffer | undefined> = [];
   const keys = files.map((file) => {
-    const r = readKeyed(path.join(dir, ...file.split("/")), file, shared);
+    const absolute = path.join(dir, ...file.split("/"));
+    let st: BigIntStats | undefined;
+    if (index) {
+      try {
+        st = statSync(absolute, { bigint: true });
+      } catch {
+        // readKeyed says why
+      }
+      const known = st && index.keyOf(file, st);
+      if (known !== undefined) {
+        bytes.push(undefined);
+        return known;
+      }
+    }
+    const r = readKeyed(absolute, file, shared);
     bytes.push("bytes" in r ? r.bytes : undefined);
+    if (index && st && "bytes" in r) index.record(file, st, r.key);
     return "bytes" in r ? r.key : r;
   });
+  index?.save();
   const flat = keys.map((k) => (typeof k === "string" ? k : k.key));
   const out = { dir, files, shared, keys, bytes };
   return flat.includes("") ? out : { ...out, reportKey: digest([shared, ...files.flatMap((f, i) => [f, flat[i]])]) };
@@ -262,7 +285,7 @@ const spillFolders = new Set<string>();
 export async function runPipeline(recordsDir: string, options: PipelineOptions, keyed?: FolderKeys): Promise<PipelineOutcome> {
   const dir = path.resolve(recordsDir);
   const pages = options.pages;
-  const folder = keyed ?? (await keyRecordFolder(dir, options.audit));
+  const folder = keyed ?? (await keyRecordFolder(dir, options.audit, options.cacheDir));
   if (folder === undefined) {
     // a missing or unreadable folder: one problem, nothing to cache, no object pages
     const report = await runAudit(dir, options.audit);
@@ -292,8 +315,18 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
       reused++;
       return;
     }
-    // a file with a key was read whole when it was keyed
-    toAudit.push({ file, key: known, bytes: folder.bytes[i]! });
+    // a file keyed from the stat index was not read: read it now, keyed by what it holds now
+    const bytes = folder.bytes[i];
+    if (bytes !== undefined) {
+      toAudit.push({ file, key: known, bytes });
+      return;
+    }
+    const r = readKeyed(path.join(dir, ...file.split("/")), file, shared);
+    if (!("bytes" in r)) {
+      slots[i] = r;
+      return;
+    }
+    toAudit.push({ file, key: r.key, bytes: r.bytes });
   });
 
   // one renderer on this thread for the pages and home rows not made on a worker, made when first needed

@@ -169,7 +169,7 @@ export async function buildSite(options: BuildSiteOptions): Promise<BuildSiteOut
   const manifest = cacheDir !== undefined ? new OutputManifest(cacheFileFor(cacheDir, "site", outDir), outDir) : undefined;
   const recordsCache = cacheDir !== undefined ? recordCacheFolder(cacheDir, options.recordsDir) : undefined;
 
-  const keyed = cacheDir !== undefined ? await keyRecordFolder(options.recordsDir, audit) : undefined;
+  const keyed = cacheDir !== undefined ? await keyRecordFolder(options.recordsDir, audit, cacheDir) : undefined;
   let stampKey: string | undefined;
   if (manifest && keyed?.reportKey !== undefined && recordsCache) {
     stampKey = digest([
