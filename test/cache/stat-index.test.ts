@@ -1,25 +1,17 @@
-import { cpSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync, utimesSync, writeFileSync } from "node:fs";
-import os from "node:os";
+import { cpSync, readFileSync, readdirSync, statSync, utimesSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import { afterAll, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import { RACY_NS, StatIndex } from "../../src/cache/stat-index.js";
 import { buildSite } from "../../src/site/build.js";
 import { keyRecordFolder } from "../../src/build/pipeline.js";
 import { listFiles } from "../site/helpers/html-scan.js";
+import { tempDirs } from "../site/helpers/temp-dirs.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const DEMO = path.join(ROOT, "content/records");
 const DRAWS = 200;
 
-const temp: string[] = [];
-function tempDir(label: string): string {
-  const d = mkdtempSync(path.join(os.tmpdir(), `steelyard-stat-index-${label}-`));
-  temp.push(d);
-  return d;
-}
-afterAll(() => {
-  for (const d of temp) rmSync(d, { recursive: true, force: true });
-});
+const tempDir = tempDirs("steelyard-stat-index");
 
 /** An index file holding `file`'s stats as they are now, made `madeAfterNs` after its last change. */
 function writeIndex(indexFile: string, shared: string, name: string, file: string, key: string, madeAfterNs: bigint): void {

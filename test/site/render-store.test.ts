@@ -1,25 +1,17 @@
 import katex from "katex";
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import os from "node:os";
+import { readFileSync, writeFileSync } from "node:fs";
 import path from "node:path";
-import { afterAll, describe, expect, it, vi } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import { listFiles } from "./helpers/html-scan.js";
+import { tempDirs } from "./helpers/temp-dirs.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const DEMO = path.join(ROOT, "content/records");
 const CLI = path.join(ROOT, "bin/steelyard.js");
 const REFERENCE_OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
 
-const temp: string[] = [];
-function tempDir(label: string): string {
-  const d = mkdtempSync(path.join(os.tmpdir(), `steelyard-render-store-${label}-`));
-  temp.push(d);
-  return d;
-}
-afterAll(() => {
-  for (const d of temp) rmSync(d, { recursive: true, force: true });
-});
+const tempDir = tempDirs("steelyard-render-store");
 
 type Adapter = typeof import("../../src/site/katex.js");
 type Store = typeof import("../../src/site/render-store.js");
