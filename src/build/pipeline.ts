@@ -18,8 +18,7 @@ import type { Problem } from "../problem.js";
 import { DEFAULT_MAX_FILE_BYTES, duplicateIdProblem, fileTooLargeProblems, fileUnreadableProblems, listRecordFiles } from "../records/load.js";
 import { compareProblems, compareText } from "../records/problem-list.js";
 import { adoptHomeRowHtml } from "../site/home-rows.js";
-import { exportTemplates, importTemplates } from "../site/compiled-templates.js";
-import { exportShapes, importShapes } from "../site/katex.js";
+import { adoptRendering, knownRendering } from "../site/render-store.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import { objectPath } from "../site/table.js";
 import { VERSION } from "../version.js";
@@ -154,8 +153,7 @@ function auditOnWorkers(
     inFlight: IN_FLIGHT,
     request: (batch, items) => ({ kind: "files", batch, files: items }) satisfies RecordWorkerRequest,
     onReply: (reply) => {
-      importShapes(reply.shapes);
-      importTemplates(reply.templates);
+      adoptRendering(reply.learned);
       onDone(reply.entries.map(unpackEntry), reply.pages);
     },
     name: "build worker",
@@ -176,26 +174,27 @@ export interface FolderKeys {
   readonly reportKey?: string;
 }
 
-function readKeyed(absolute: string, file: string, shared: string): { key: string; bytes: Buffer } | RecordEntry {
+function readKeyed(absolute: string, file: string, shared: string): { key: string; bytes: Buffer; stats: BigIntStats } | RecordEntry {
   try {
-    const bytes = readWhole(absolute, DEFAULT_MAX_FILE_BYTES);
-    if (typeof bytes === "number") return { file, key: digest([shared, file, `size:${bytes}`]), problems: fileTooLargeProblems(file, bytes) };
-    return { key: digest([shared, file, bytes]), bytes };
+    const read = readWhole(absolute, DEFAULT_MAX_FILE_BYTES);
+    if (typeof read === "number") return { file, key: digest([shared, file, `size:${read}`]), problems: fileTooLargeProblems(file, read) };
+    return { key: digest([shared, file, read.bytes]), ...read };
   } catch (e) {
     return { file, key: "", problems: fileUnreadableProblems(file, e as Error) };
   }
 }
 
 /**
- * The bytes of a file as its size was when opened, or that size when it is
- * above `limit`: one open, one stat, the reads and one close, one system call
- * fewer than a stat and readFileSync (ten thousand record files are read and
- * keyed on every build).
+ * The bytes of a file as its size was when opened, with its stats from before
+ * the reads, or that size when it is above `limit`: one open, one stat, the
+ * reads and one close, one system call fewer than a stat and readFileSync
+ * (ten thousand record files are read and keyed on a first build).
  */
-function readWhole(file: string, limit: number): Buffer | number {
+function readWhole(file: string, limit: number): { bytes: Buffer; stats: BigIntStats } | number {
   const fd = openSync(file, "r");
   try {
-    const size = fstatSync(fd).size;
+    const stats = fstatSync(fd, { bigint: true });
+    const size = Number(stats.size);
     if (size > limit) return size;
     const bytes = Buffer.allocUnsafe(size);
     let used = 0;
@@ -204,7 +203,7 @@ function readWhole(file: string, limit: number): Buffer | number {
       if (n === 0) break;
       used += n;
     }
-    return used === size ? bytes : bytes.subarray(0, used);
+    return { bytes: used === size ? bytes : bytes.subarray(0, used), stats };
   } finally {
     closeSync(fd);
   }
@@ -230,8 +229,9 @@ export async function keyRecordFolder(recordsDir: string, audit: RunOptions, cac
   const bytes: Array<Buffer | undefined> = [];
   const keys = files.map((file) => {
     const absolute = path.join(dir, ...file.split("/"));
-    let st: BigIntStats | undefined;
-    if (index) {
+    // a file the index holds is stat-ed first; any other is read at once, its stats taken as it is opened
+    if (index?.holds(file)) {
+      let st: BigIntStats | undefined;
       try {
         st = statSync(absolute, { bigint: true });
       } catch {
@@ -245,7 +245,7 @@ export async function keyRecordFolder(recordsDir: string, audit: RunOptions, cac
     }
     const r = readKeyed(absolute, file, shared);
     bytes.push("bytes" in r ? r.bytes : undefined);
-    if (index && st && "bytes" in r) index.record(file, st, r.key);
+    if (index && "bytes" in r) index.record(file, r.stats, r.key);
     return "bytes" in r ? r.key : r;
   });
   index?.save();
@@ -340,7 +340,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     const data: RecordWorkerData = {
       options: options.audit,
       ...(options.objectJson ? { objectJson: true } : {}),
-      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site, siteKey }, equations: exportShapes(), templates: exportTemplates() } : {}),
+      ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site, siteKey }, rendering: knownRendering() } : {}),
       // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file
       ...(pages || options.objectJson ? { spillDir: spillFolder() } : {}),
     };

@@ -2,8 +2,7 @@ import path from "node:path";
 import { parentPort, threadId, workerData } from "node:worker_threads";
 import { objectJsonText } from "../report/json-report.js";
 import type { RunOptions } from "../audit/audit-records.js";
-import { importTemplates, takeLearnedTemplates, type KeptTemplate } from "../site/compiled-templates.js";
-import { importShapes, takeLearnedShapes, type KeptShape } from "../site/katex.js";
+import { adoptRendering, learnedRendering, type Rendering } from "../site/render-store.js";
 import { createPageRenderer, type PageRenderer, type PageSite } from "../site/page-render.js";
 import {
   attachFragments,
@@ -29,10 +28,8 @@ export interface RecordWorkerData {
   readonly options: RunOptions;
   /** For a site: where its templates and pages are, what the pages read of it, and its key (pageSiteKey). */
   readonly pages?: { readonly includesDir: string; readonly outDir: string; readonly site: PageSite; readonly siteKey: string };
-  /** For a site: the equation shapes the main thread knows (see katex.ts), so that none is typeset again here. */
-  readonly equations?: readonly KeptShape[];
-  /** For a site: the compiled templates the main thread knows (see compiled-templates.ts). */
-  readonly templates?: readonly KeptTemplate[];
+  /** For a site: the equation shapes and compiled templates the main thread knows, so that none is made again here. */
+  readonly rendering?: Rendering;
   /** For a site: the folder where each worker writes the bytes of its audits (see WireEntry). */
   readonly spillDir?: string;
   /** Make each object's text in the JSON report here (see RecordEntry.json). */
@@ -47,10 +44,8 @@ export type RecordWorkerReply =
       readonly batch: number;
       readonly entries: ReadonlyArray<RecordEntry | WireEntry>;
       readonly pages: readonly PageWritten[];
-      /** Equation shapes learned here since the last batch, for the main thread to know and keep. */
-      readonly shapes: readonly KeptShape[];
-      /** Templates compiled here since the last batch, likewise. */
-      readonly templates: readonly KeptTemplate[];
+      /** Equation shapes and templates learned here since the last batch, for the main thread to know and keep. */
+      readonly learned: Rendering;
     }
   | { readonly kind: "failed"; readonly batch: number; readonly message: string };
 
@@ -59,8 +54,7 @@ if (port) {
   const data = workerData as RecordWorkerData;
   let render: PageRenderer | undefined;
   let spill: SpillFile | undefined;
-  if (data.equations) importShapes(data.equations);
-  if (data.templates) importTemplates(data.templates);
+  if (data.rendering) adoptRendering(data.rendering);
   port.on("message", (msg: RecordWorkerRequest) => {
     if (msg.kind === "end") {
       spill?.close();
@@ -81,7 +75,7 @@ if (port) {
       // for a site, the main thread needs only each audit's summary, fragments and the place of its bytes
       if (data.spillDir) spill ??= new SpillFile(path.join(data.spillDir, `audits-${threadId}.bin`));
       const wire = spill ? entries.map((e) => packEntry(e, spill!)) : entries;
-      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages, shapes: takeLearnedShapes(), templates: takeLearnedTemplates() } satisfies RecordWorkerReply);
+      port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages, learned: learnedRendering() } satisfies RecordWorkerReply);
     } catch (e) {
       const error = e as Error;
       port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies RecordWorkerReply);

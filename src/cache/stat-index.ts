@@ -68,6 +68,11 @@ export class StatIndex {
     }
   }
 
+  /** Whether the index holds an entry for `file` (trusted or not). */
+  holds(file: string): boolean {
+    return this.before.has(file);
+  }
+
   /** The key `file` had, if it still has the same stats and its entry can be trusted. */
   keyOf(file: string, st: BigIntStats): string | undefined {
     const e = this.before.get(file);

@@ -35,7 +35,6 @@ export function homeRowRendererIn(env: nunjucks.Environment, basePath: string): 
   };
 }
 
-
 /**
  * Rows rendered for an object and the base path they were rendered under,
  * by object. One map per process (a registered symbol), as for the fragments.

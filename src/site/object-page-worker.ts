@@ -1,8 +1,7 @@
 import { parentPort, workerData } from "node:worker_threads";
-import { importTemplates, takeLearnedTemplates, type KeptTemplate } from "./compiled-templates.js";
-import { importShapes, takeLearnedShapes, type KeptShape } from "./katex.js";
 import { createPageRenderer, type PageInput, type PageSite } from "./page-render.js";
 import { renderAndWrite, type WrittenPage } from "./page-writer.js";
+import { adoptRendering, learnedRendering, type Rendering } from "./render-store.js";
 
 /**
  * A page worker: its own Nunjucks environment renders the object pages it is
@@ -13,10 +12,8 @@ export interface PageWorkerData {
   readonly includesDir: string;
   readonly outDir: string;
   readonly site: PageSite;
-  /** The equation shapes the main thread knows (see katex.ts), so that none is typeset again here. */
-  readonly equations?: readonly KeptShape[];
-  /** The compiled templates the main thread knows (see compiled-templates.ts). */
-  readonly templates?: readonly KeptTemplate[];
+  /** The equation shapes and compiled templates the main thread knows, so that none is made again here. */
+  readonly rendering?: Rendering;
 }
 
 export type PageWorkerRequest = { readonly kind: "pages"; readonly batch: number; readonly pages: readonly PageInput[] } | { readonly kind: "end" };
@@ -26,18 +23,15 @@ export type PageWorkerReply =
       readonly kind: "written";
       readonly batch: number;
       readonly pages: readonly WrittenPage[];
-      /** Equation shapes learned here since the last batch, for the main thread to know. */
-      readonly shapes: readonly KeptShape[];
-      /** Templates compiled here since the last batch, likewise. */
-      readonly templates: readonly KeptTemplate[];
+      /** Equation shapes and templates learned here since the last batch, for the main thread to know. */
+      readonly learned: Rendering;
     }
   | { readonly kind: "failed"; readonly batch: number; readonly message: string };
 
 const port = parentPort;
 if (port) {
   const data = workerData as PageWorkerData;
-  if (data.equations) importShapes(data.equations);
-  if (data.templates) importTemplates(data.templates);
+  if (data.rendering) adoptRendering(data.rendering);
   const render = createPageRenderer(data.includesDir, data.site);
   port.on("message", (msg: PageWorkerRequest) => {
     if (msg.kind === "end") {
@@ -46,7 +40,7 @@ if (port) {
     }
     try {
       const pages = msg.pages.map((p) => renderAndWrite(render, p, data.outDir));
-      port.postMessage({ kind: "written", batch: msg.batch, pages, shapes: takeLearnedShapes(), templates: takeLearnedTemplates() } satisfies PageWorkerReply);
+      port.postMessage({ kind: "written", batch: msg.batch, pages, learned: learnedRendering() } satisfies PageWorkerReply);
     } catch (e) {
       const error = e as Error;
       port.postMessage({ kind: "failed", batch: msg.batch, message: `${error.message}\n${error.stack ?? ""}` } satisfies PageWorkerReply);

@@ -5,10 +5,9 @@ import { realAudit } from "../cache/lazy-audit.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import type { Problem } from "../problem.js";
 import type { PageWorkerData, PageWorkerReply, PageWorkerRequest } from "./object-page-worker.js";
-import { exportTemplates, importTemplates } from "./compiled-templates.js";
-import { exportShapes, importShapes } from "./katex.js";
 import { createPageRenderer, type PageInput, type PageSite } from "./page-render.js";
 import { renderAndWrite, type WrittenPage } from "./page-writer.js";
+import { adoptRendering, knownRendering } from "./render-store.js";
 import { objectPath } from "./table.js";
 
 export { NUNJUCKS_OPTIONS } from "./page-render.js";
@@ -66,8 +65,7 @@ function renderOnWorkers(url: URL, count: number, data: PageWorkerData, inputs: 
     inFlight: IN_FLIGHT,
     request: (batch, pages) => ({ kind: "pages", batch, pages }) satisfies PageWorkerRequest,
     onReply: (reply) => {
-      importShapes(reply.shapes);
-      importTemplates(reply.templates);
+      adoptRendering(reply.learned);
       for (const p of reply.pages) onWritten(p);
     },
     name: "object page worker",
@@ -99,7 +97,7 @@ export async function writeObjectPages(options: ObjectPagesOptions): Promise<Obj
   const workers = options.workers ?? Math.max(1, availableParallelism());
   const url = workers > 0 && todo.length >= (options.minPagesForWorkers ?? 200) ? pageWorkerUrl() : undefined;
   if (url) {
-    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site, equations: exportShapes(), templates: exportTemplates() }, todo, onWritten);
+    await renderOnWorkers(url, Math.min(workers, Math.ceil(todo.length / BATCH)), { includesDir: options.includesDir, outDir, site: options.site, rendering: knownRendering() }, todo, onWritten);
   } else {
     const render = createPageRenderer(options.includesDir, options.site);
     for (const input of todo) onWritten(renderAndWrite(render, input, outDir));

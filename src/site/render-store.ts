@@ -2,8 +2,8 @@ import { mkdirSync, readFileSync, renameSync, rmSync, writeFileSync } from "node
 import path from "node:path";
 import { digest } from "../cache/digest.js";
 import { toolFingerprint } from "../cache/fingerprint.js";
-import { exportTemplates, importTemplates, type KeptTemplate } from "./compiled-templates.js";
-import { exportShapes, importShapes, typesetterId, type KeptShape } from "./katex.js";
+import { exportTemplates, importTemplates, takeLearnedTemplates, type KeptTemplate } from "./compiled-templates.js";
+import { exportShapes, importShapes, takeLearnedShapes, typesetterId, type KeptShape } from "./katex.js";
 
 /**
  * What the object pages are rendered with, kept in the cache folder between
@@ -26,6 +26,28 @@ import { exportShapes, importShapes, typesetterId, type KeptShape } from "./kate
 
 const FILE_NAME = "render-store.json";
 
+/** What one thread renders object pages with that another thread or run can take: plain data. */
+export interface Rendering {
+  readonly shapes: readonly KeptShape[];
+  readonly templates: readonly KeptTemplate[];
+}
+
+/** Every shape and template this thread knows (for a worker about to start). */
+export function knownRendering(): Rendering {
+  return { shapes: exportShapes(), templates: exportTemplates() };
+}
+
+/** What this thread learned since the last call (for a worker's reply to the main thread). */
+export function learnedRendering(): Rendering {
+  return { shapes: takeLearnedShapes(), templates: takeLearnedTemplates() };
+}
+
+/** Takes what another thread or run of this same code learned. */
+export function adoptRendering(r: Rendering): void {
+  importShapes(r.shapes);
+  importTemplates(r.templates);
+}
+
 /** What a build read from the store, to tell at the end whether it has anything to add. */
 export interface RenderStore {
   readonly file: string;
@@ -33,18 +55,16 @@ export interface RenderStore {
   readonly known: ReadonlySet<string>;
 }
 
-interface StoreFile {
+interface StoreFile extends Rendering {
   readonly key: string;
   readonly digest: string;
-  readonly shapes: readonly KeptShape[];
-  readonly templates: readonly KeptTemplate[];
 }
 
 function storeKey(): string {
   return digest([toolFingerprint(), typesetterId()]);
 }
 
-function contentDigest(shapes: readonly KeptShape[], templates: readonly KeptTemplate[]): string {
+function contentDigest({ shapes, templates }: Rendering): string {
   return digest([JSON.stringify(shapes), JSON.stringify(templates)]);
 }
 
@@ -63,10 +83,9 @@ export function loadRenderStore(cacheDir: string): RenderStore {
     parsed.key === storeKey() &&
     Array.isArray(parsed.shapes) &&
     Array.isArray(parsed.templates) &&
-    parsed.digest === contentDigest(parsed.shapes, parsed.templates)
+    parsed.digest === contentDigest(parsed)
   ) {
-    importShapes(parsed.shapes);
-    importTemplates(parsed.templates);
+    adoptRendering(parsed);
     for (const s of parsed.shapes) known.add(s.key);
     for (const t of parsed.templates) known.add(t.key);
   }
@@ -79,10 +98,9 @@ export function loadRenderStore(cacheDir: string): RenderStore {
  * cannot be written only makes the next build slower.
  */
 export function saveRenderStore(store: RenderStore): boolean {
-  const shapes = exportShapes();
-  const templates = exportTemplates();
-  if (shapes.every((s) => store.known.has(s.key)) && templates.every((t) => store.known.has(t.key))) return false;
-  const body: StoreFile = { key: storeKey(), digest: contentDigest(shapes, templates), shapes, templates };
+  const rendering = knownRendering();
+  if (rendering.shapes.every((s) => store.known.has(s.key)) && rendering.templates.every((t) => store.known.has(t.key))) return false;
+  const body: StoreFile = { key: storeKey(), digest: contentDigest(rendering), ...rendering };
   const tmp = `${store.file}.${process.pid}.tmp`;
   try {
     mkdirSync(path.dirname(store.file), { recursive: true });

@@ -5,7 +5,7 @@ import type { MethodDefinition } from "../methods/method.js";
 import path from "node:path";
 import { underBase } from "./base-path.js";
 import { homeRowHtmlOf, type HomeRowRenderer } from "./home-rows.js";
-import { createPageRenderer } from "./page-render.js";
+import { createPageRenderer, pageSite } from "./page-render.js";
 import { CONTENT_DIR } from "./paths.js";
 import { constantsView, type ConstantView } from "./constants-view.js";
 import { DOWNLOADS } from "./downloads.js";
@@ -98,8 +98,8 @@ export function buildSiteData(input: SiteInputs): SiteData {
     rows: homeRows.map((r) => r.row),
     get homeRowsHtml(): string {
       // the rows no build worker made go through the object pages' renderer, as on a worker
-      const site = { basePath: input.basePath, version: report.tool.version, settings: report.settings, hasChanges: input.previous !== undefined };
-      rowsHtml ??= homeRowsHtmlOf(homeRows, input.basePath, () => createPageRenderer(includesDir, site).homeRow);
+      const site = () => pageSite({ basePath: input.basePath, version: report.tool.version, settings: report.settings, changes: input.previous });
+      rowsHtml ??= homeRowsHtmlOf(homeRows, input.basePath, () => createPageRenderer(includesDir, site()).homeRow);
       return rowsHtml;
     },
     objects: report.objects,
