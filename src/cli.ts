@@ -180,9 +180,10 @@ export async function main(argv: readonly string[], io: Io = STD_IO): Promise<nu
         return 2;
       }
     }
-    // parsed and audited on worker threads (each object's JSON text too), the same report as runAudit gives
+    // parsed and audited on worker threads (each object's JSON text too), the same report as runAudit gives;
+    // with --json this thread reads of each audit only its summary, and the text
     const json = flags.has("--json");
-    const { report, objectJson } = await runPipeline(recordsDir, { audit: options, ...(json ? { objectJson: true } : {}) });
+    const { report, objectJson } = await runPipeline(recordsDir, { audit: options, ...(json ? { objectJson: true, summariesOnly: true } : {}) });
     if (json) await (io.outChunks ?? writeEach(io))(reportJsonChunks(report, (o) => objectJson?.(o)));
     else io.out(textReport(report));
     return exitCodeFor(report);

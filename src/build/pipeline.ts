@@ -76,6 +76,14 @@ export interface PipelineOptions {
   readonly minFilesForWorkers?: number;
   /** Have the workers make each object's text in the JSON report (PipelineOutcome.objectJson). */
   readonly objectJson?: boolean;
+  /**
+   * The caller reads of each object audit of the report only what its summary
+   * holds (id, name, file, status and the measurements' statuses) besides its
+   * JSON text (objectJson), as `check --json` does: the workers then neither
+   * serialise nor send the rest, and reading more of an audit made on a
+   * worker throws. Not with pages or a cache, which need the whole audits.
+   */
+  readonly summariesOnly?: boolean;
   /** Called with the entries audited in this run as they come in (from the workers, batch by batch, while they go on). */
   readonly onAudited?: (entries: readonly RecordEntry[]) => void;
 }
@@ -285,6 +293,9 @@ const spillFolders = new Set<string>();
 export async function runPipeline(recordsDir: string, options: PipelineOptions, keyed?: FolderKeys): Promise<PipelineOutcome> {
   const dir = path.resolve(recordsDir);
   const pages = options.pages;
+  if (options.summariesOnly && (pages || options.cacheDir !== undefined)) {
+    throw new Error("runPipeline: summariesOnly leaves out what pages and the cache need of each audit");
+  }
   const folder = keyed ?? (await keyRecordFolder(dir, options.audit, options.cacheDir));
   if (folder === undefined) {
     // a missing or unreadable folder: one problem, nothing to cache, no object pages
@@ -340,8 +351,9 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     const data: RecordWorkerData = {
       options: options.audit,
       ...(options.objectJson ? { objectJson: true } : {}),
+      ...(options.summariesOnly ? { summariesOnly: true } : {}),
       ...(pages ? { pages: { includesDir: pages.includesDir, outDir: pages.outDir, site: pages.site, siteKey }, rendering: knownRendering() } : {}),
-      // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file
+      // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file (with summariesOnly it is not sent)
       ...(pages || options.objectJson ? { spillDir: spillFolder() } : {}),
     };
     await auditOnWorkers(url, Math.min(workers, Math.ceil(toAudit.length / BATCH)), data, toAudit, (entries, done) => {

@@ -6,7 +6,7 @@ import type { Location, ObjectRecord } from "../records/types.js";
 import type { PageRenderer } from "../site/page-render.js";
 import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
 import { adoptFragments, fragmentsOf, type ObjectFragments } from "../site/fragments.js";
-import { lazyAudit, storeAudit, type AuditSummary } from "../cache/lazy-audit.js";
+import { lazyAudit, storeAudit, summaryOf, type AuditSummary } from "../cache/lazy-audit.js";
 import { readBlob, type StoreCodec } from "../cache/record-store.js";
 import { closeSync, openSync, writeSync } from "node:fs";
 
@@ -156,16 +156,24 @@ interface StoredEntry extends Omit<RecordEntry, "audit"> {
   readonly audit?: { readonly problems: readonly Problem[]; readonly summary?: AuditSummary };
 }
 
+/**
+ * An entry as the cache keeps it, or, with `auditBytes` false, as a worker
+ * sends it when the main thread reads nothing of its audit but the summary:
+ * the audit is then neither serialised nor sent.
+ */
+function encodeEntry(whole: RecordEntry, auditBytes: boolean): { value: unknown; blob?: Uint8Array } {
+  // the report text of `check` is not kept
+  const { json: _json, jsonAt: _jsonAt, ...e } = whole;
+  if (!e.audit) return { value: e };
+  const { object, problems } = e.audit;
+  if (!object) return { value: { ...e, audit: { problems } } };
+  if (!auditBytes) return { value: { ...e, audit: { problems, summary: summaryOf(object) } } satisfies StoredEntry };
+  const { summary, bytes } = storeAudit(object);
+  return { value: { ...e, audit: { problems, summary } } satisfies StoredEntry, blob: bytes };
+}
+
 export const ENTRY_CODEC: StoreCodec<RecordEntry> = {
-  encode(whole) {
-    // the report text of `check` is not kept
-    const { json: _json, jsonAt: _jsonAt, ...e } = whole;
-    if (!e.audit) return { value: e };
-    const { object, problems } = e.audit;
-    if (!object) return { value: { ...e, audit: { problems } } };
-    const { summary, bytes } = storeAudit(object);
-    return { value: { ...e, audit: { problems, summary } } satisfies StoredEntry, blob: bytes };
-  },
+  encode: (whole) => encodeEntry(whole, true),
   decode(v, blob) {
     const s = v as StoredEntry;
     if (!s || !s.audit) return s as RecordEntry;
@@ -185,6 +193,8 @@ export interface WireEntry {
   readonly spill?: SpillPlace;
   /** Where its object's JSON report text is, when the worker made it. */
   readonly json?: SpillPlace;
+  /** Its audit was not sent, only the summary (see packEntry). */
+  readonly summaryOnly?: true;
 }
 
 /** A file that one worker appends audits to; it stays until the process ends. */
@@ -208,10 +218,24 @@ export class SpillFile {
   }
 }
 
-export function packEntry(e: RecordEntry, spill: SpillFile): WireEntry {
-  const { value, blob } = ENTRY_CODEC.encode(e);
+/**
+ * An entry for the main thread. With `auditBytes` false, that thread reads of
+ * its audit nothing but the summary (id, name, file and statuses, as the
+ * JSON report of `check` needs besides the text made here): the audit is
+ * neither serialised nor spilled, and the stand-in made of it on the other
+ * side throws when anything else is read.
+ */
+export function packEntry(e: RecordEntry, spill: SpillFile, auditBytes = true): WireEntry {
+  const { value, blob } = encodeEntry(e, auditBytes);
   const json = e.json !== undefined ? { json: { file: spill.file, ...spill.append(Buffer.from(e.json, "utf8")) } } : {};
-  return blob === undefined ? { value, ...json } : { value, spill: { file: spill.file, ...spill.append(blob) }, ...json };
+  if (blob !== undefined) return { value, spill: { file: spill.file, ...spill.append(blob) }, ...json };
+  return !auditBytes && e.audit?.object ? { value, summaryOnly: true, ...json } : { value, ...json };
+}
+
+function notSent(file: string): () => Uint8Array {
+  return () => {
+    throw new Error(`build pipeline: the audit of ${file} was asked for, but only its summary was sent from its worker (summariesOnly)`);
+  };
 }
 
 export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
@@ -219,9 +243,11 @@ export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
   const s = w.value as StoredEntry;
   const spill = w.spill;
   const json = w.json ? { jsonAt: w.json } : {};
-  if (!spill || !s?.audit?.summary) return { ...ENTRY_CODEC.decode(w.value), ...json };
+  const summary = s?.audit?.summary;
+  if (summary && w.summaryOnly) return { ...s, audit: { problems: s.audit!.problems, object: lazyAudit(summary, notSent(s.file), true) }, ...json };
+  if (!spill || !summary) return { ...ENTRY_CODEC.decode(w.value), ...json };
   const { file, at, length } = spill;
-  return { ...s, audit: { problems: s.audit.problems, object: lazyAudit(s.audit.summary, () => readBlob(file, at, length), true) }, ...json };
+  return { ...s, audit: { problems: s.audit!.problems, object: lazyAudit(summary, () => readBlob(file, at, length), true) }, ...json };
 }
 
 /** An entry's JSON report text: made on this thread, or its UTF-8 bytes read back from where a worker wrote them. */

@@ -34,6 +34,8 @@ export interface RecordWorkerData {
   readonly spillDir?: string;
   /** Make each object's text in the JSON report here (see RecordEntry.json). */
   readonly objectJson?: boolean;
+  /** Send of each audit only its summary (PipelineOptions.summariesOnly). */
+  readonly summariesOnly?: boolean;
 }
 
 export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
@@ -74,7 +76,7 @@ if (port) {
       }
       // for a site, the main thread needs only each audit's summary, fragments and the place of its bytes
       if (data.spillDir) spill ??= new SpillFile(path.join(data.spillDir, `audits-${threadId}.bin`));
-      const wire = spill ? entries.map((e) => packEntry(e, spill!)) : entries;
+      const wire = spill ? entries.map((e) => packEntry(e, spill!, !data.summariesOnly)) : entries;
       port.postMessage({ kind: "done", batch: msg.batch, entries: wire, pages, learned: learnedRendering() } satisfies RecordWorkerReply);
     } catch (e) {
       const error = e as Error;

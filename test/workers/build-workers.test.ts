@@ -1,5 +1,5 @@
 import { execFileSync, spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
+import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -101,4 +101,26 @@ describe("the compiled build on worker threads", () => {
     expect(r.stdout).toBe(want);
     expect(readdirSync(childTmp).filter((n) => n.startsWith("steelyard-audits-"))).toEqual([]);
   });
+
+  it("checks on worker threads, sending only summaries, to the report of one thread when records clash or break", async () => {
+    // the same catalogue, with an id used twice, a file that is not YAML and a record that misses a field
+    const mixed = path.join(temp, "mixed");
+    cpSync(records, mixed, { recursive: true });
+    const first = readFileSync(path.join(mixed, "000", "bnch-1.yaml"), "utf8");
+    writeFileSync(path.join(mixed, "000", "bnch-1-again.yaml"), first);
+    writeFileSync(path.join(mixed, "000", "broken.yaml"), "name: [unclosed\n");
+    writeFileSync(path.join(mixed, "000", "no-measurements.yaml"), 'name: Lone\nid: "lone-1"\n');
+    const r = spawnSync(process.execPath, ["bin/steelyard.js", "check", mixed, "--json", "--draws", DRAWS], {
+      cwd: ROOT,
+      encoding: "utf8",
+      maxBuffer: 1 << 28,
+      env: { ...process.env, TMPDIR: childTmp },
+    });
+    expect(r.stderr).toBe("");
+    const report = await runAudit(mixed, { draws: Number(DRAWS) });
+    expect(report.problems.map((p) => p.code)).toEqual(expect.arrayContaining(["duplicate-id"]));
+    expect(report.problems.some((p) => p.file === "000/broken.yaml")).toBe(true);
+    expect(r.stdout).toBe([...reportJsonChunks(report)].join(""));
+  });
 });
+
