@@ -29,6 +29,7 @@ import {
   attachFragments,
   attachHomeRows,
   auditEntriesParallel,
+  closeSpills,
   fileProblems,
   parseFiles,
   sortAsReport,
@@ -281,6 +282,7 @@ function spillFolder(): string {
   const dir = mkdtempSync(path.join(os.tmpdir(), "steelyard-audits-"));
   if (spillFolders.size === 0) {
     process.once("exit", () => {
+      closeSpills();
       for (const d of spillFolders) rmSync(d, { recursive: true, force: true });
     });
   }

@@ -7,7 +7,7 @@ import type { PageRenderer } from "../site/page-render.js";
 import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
 import { adoptFragments, fragmentsOf, type ObjectFragments } from "../site/fragments.js";
 import { lazyAudit, storeAudit, summaryOf, type AuditSummary } from "../cache/lazy-audit.js";
-import { readBlob, type StoreCodec } from "../cache/record-store.js";
+import { readRange, type StoreCodec } from "../cache/record-store.js";
 import { closeSync, openSync, writeSync } from "node:fs";
 
 /** What the cache keeps of one record file. */
@@ -247,12 +247,41 @@ export function unpackEntry(w: WireEntry | RecordEntry): RecordEntry {
   if (summary && w.summaryOnly) return { ...s, audit: { problems: s.audit!.problems, object: lazyAudit(summary, notSent(s.file), true) }, ...json };
   if (!spill || !summary) return { ...ENTRY_CODEC.decode(w.value), ...json };
   const { file, at, length } = spill;
-  return { ...s, audit: { problems: s.audit!.problems, object: lazyAudit(summary, () => readBlob(file, at, length), true) }, ...json };
+  return { ...s, audit: { problems: s.audit!.problems, object: lazyAudit(summary, () => readSpill({ file, at, length }), true) }, ...json };
 }
 
 /** An entry's JSON report text: made on this thread, or its UTF-8 bytes read back from where a worker wrote them. */
 export function entryJsonOrBytes(e: RecordEntry): string | Uint8Array | undefined {
   if (e.json !== undefined) return e.json;
   const at = e.jsonAt;
-  return at ? readBlob(at.file, at.at, at.length) : undefined;
+  return at ? readSpill(at) : undefined;
+}
+
+/**
+ * Spill files open for reading, the most recent few: a build reads back each
+ * of ten thousand audits and texts from two of them, and an open and a close
+ * for each read cost a fifth of a second of the build's serial end. A spill
+ * file's name is never used again in a process, and it stays until the end.
+ */
+const openSpills = new Map<string, number>();
+const OPEN_SPILLS = 8;
+
+function readSpill(place: SpillPlace): Uint8Array {
+  let fd = openSpills.get(place.file);
+  if (fd === undefined) {
+    if (openSpills.size >= OPEN_SPILLS) {
+      const [oldest, oldFd] = openSpills.entries().next().value as [string, number];
+      openSpills.delete(oldest);
+      closeSync(oldFd);
+    }
+    fd = openSync(place.file, "r");
+    openSpills.set(place.file, fd);
+  }
+  return readRange(fd, place.file, place.at, place.length);
+}
+
+/** Closes the spill files open for reading (before their folder goes). */
+export function closeSpills(): void {
+  for (const fd of openSpills.values()) closeSync(fd);
+  openSpills.clear();
 }

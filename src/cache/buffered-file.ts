@@ -10,11 +10,12 @@ export class BufferedFile {
   private used = 0;
   private written = 0;
 
+  /** `buffer`: its size, or a buffer to use (scratch that the caller reuses from file to file, so that new memory is not touched for each). */
   constructor(
     readonly fd: number,
-    bufferBytes = 1 << 22,
+    buffer: number | Buffer = 1 << 22,
   ) {
-    this.buffer = Buffer.allocUnsafe(bufferBytes);
+    this.buffer = typeof buffer === "number" ? Buffer.allocUnsafe(buffer) : buffer;
   }
 
   /** Bytes so far, written or pending. */

@@ -1,6 +1,7 @@
-import { closeSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync, writeSync } from "node:fs";
+import { closeSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync } from "node:fs";
 import { randomBytes } from "node:crypto";
 import path from "node:path";
+import { BufferedFile } from "./buffered-file.js";
 import { readChunkedFile, writeChunkedFile } from "./chunked-file.js";
 import { digest } from "./digest.js";
 
@@ -11,6 +12,7 @@ import { digest } from "./digest.js";
  */
 
 export const SHARDS = 64;
+const BLOB_BUFFER_BYTES = 1 << 20;
 const KIND = "steelyard-records";
 
 interface Keyed {
@@ -79,21 +81,26 @@ function blobFilesOf(folder: string, n: number): string[] {
   }
 }
 
+/** Bytes [at, at + length) of the open file `fd`; `name` names it when it is shorter. */
+export function readRange(fd: number, name: string, at: number, length: number): Uint8Array {
+  const out = Buffer.allocUnsafeSlow(length);
+  let got = 0;
+  while (got < length) {
+    const n = readSync(fd, out, got, length - got, at + got);
+    if (n <= 0) throw new Error(`record store: ${name} ends before the ${length} bytes at ${at} it should hold`);
+    got += n;
+  }
+  return out;
+}
+
 /** Bytes [at, at + length) of a file. */
 export function readBlob(file: string, at: number, length: number): Uint8Array {
-  const out = Buffer.allocUnsafeSlow(length);
   const fd = openSync(file, "r");
   try {
-    let got = 0;
-    while (got < length) {
-      const n = readSync(fd, out, got, length - got, at + got);
-      if (n <= 0) throw new Error(`record store: ${file} ends before the ${length} bytes at ${at} it should hold`);
-      got += n;
-    }
+    return readRange(fd, file, at, length);
   } finally {
     closeSync(fd);
   }
-  return out;
 }
 
 function blobBytesOnDisk(file: string): number {
@@ -129,7 +136,7 @@ export function readRecordStore<T extends Keyed>(folder: string, codec: StoreCod
 }
 
 /** Writes one shard: its blobs to a new file first, then its values, then the old blob files go. */
-function writeShard<T>(folder: string, n: number, list: readonly T[], codec: StoreCodec<T>): void {
+function writeShard<T>(folder: string, n: number, list: readonly T[], codec: StoreCodec<T>, scratch: Buffer): void {
   mkdirSync(folder, { recursive: true });
   const name = `${shardPrefix(n)}${randomBytes(8).toString("hex")}.blobs`;
   const blobs = path.join(folder, name);
@@ -137,6 +144,8 @@ function writeShard<T>(folder: string, n: number, list: readonly T[], codec: Sto
   const fd = openSync(blobs, "w");
   let at = 0;
   try {
+    // gathered a megabyte at a time, not one system call per blob
+    const out = new BufferedFile(fd, scratch);
     // an entry read from the old blob files reads its blob here, before they go
     for (const e of list) {
       const { value, blob } = codec.encode(e);
@@ -144,11 +153,11 @@ function writeShard<T>(folder: string, n: number, list: readonly T[], codec: Sto
         records.push({ value });
         continue;
       }
-      let off = 0;
-      while (off < blob.length) off += writeSync(fd, blob, off, blob.length - off);
+      out.putBytes(blob);
       records.push({ value, at, length: blob.length });
       at += blob.length;
     }
+    out.flush();
   } catch (error) {
     closeSync(fd);
     rmSync(blobs, { force: true });
@@ -177,13 +186,15 @@ export function writeRecordStore<T extends Keyed>(
   const before = new Array<number>(SHARDS).fill(0);
   for (const e of previous.values()) before[shardOf(e.file)]++;
   let written = 0;
+  // one buffer for the blobs of every shard written
+  let scratch: Buffer | undefined;
   shards.forEach((list, n) => {
     const same = list.length === before[n] && list.every((e) => previous.get(e.file) === e);
     if (same) return;
     if (list.length === 0) {
       rmSync(shardFile(folder, n), { force: true });
       for (const old of blobFilesOf(folder, n)) rmSync(path.join(folder, old), { force: true });
-    } else writeShard(folder, n, list, codec);
+    } else writeShard(folder, n, list, codec, (scratch ??= Buffer.allocUnsafe(BLOB_BUFFER_BYTES)));
     written++;
   });
   return written;
