@@ -20,7 +20,13 @@ export function csvLine<T>(columns: ReadonlyArray<keyof T & string>, row: T): st
 
 /** The file from its lines: the header, then the rows' lines (csvLine). */
 export function csvFromLines(columns: readonly string[], lines: readonly string[]): string {
-  return [columns.map((c) => csvField(c)).join(","), ...lines].join("\r\n") + "\r\n";
+  return [...csvChunks(columns, lines)].join("");
+}
+
+/** That text in pieces, one line (with its CRLF) each. */
+export function* csvChunks(columns: readonly string[], lines: readonly string[]): Generator<string> {
+  yield columns.map((c) => csvField(c)).join(",") + "\r\n";
+  for (const line of lines) yield line + "\r\n";
 }
 
 export function toCsv<T>(columns: ReadonlyArray<keyof T & string>, rows: readonly T[]): string {

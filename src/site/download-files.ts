@@ -4,7 +4,7 @@ import type { OutputManifest } from "../cache/output-manifest.js";
 import { digest } from "../cache/digest.js";
 import { AUDIT_JSON_ELEMENTS, AUDIT_JSON_STREAMED, DOWNLOADS } from "./downloads.js";
 import { writeJsonStreamed, type ReuseBytes, type StreamedFile } from "./json-stream.js";
-import { writeTextFile } from "./page-writer.js";
+import { writeChunksFile, writeTextFile } from "./page-writer.js";
 
 /** Where a build with a cache finds the pieces of the full audit JSON it may copy from the last one. */
 interface StreamCache {
@@ -14,6 +14,8 @@ interface StreamCache {
   /** Texts made ahead under those keys, copied when the last build's file has none to give. */
   readonly preparedAuditJson?: ReuseBytes;
 }
+
+const CHUNK_BUFFER_BYTES = 1 << 20;
 
 /** Downloads written as a stream, object by object, instead of through their render function. */
 const STREAMED: Readonly<
@@ -42,6 +44,8 @@ export function writeDownloads(
   cache?: StreamCache & { readonly reportKey: string },
 ): number {
   let written = 0;
+  // one buffer for every download written in pieces
+  let scratch: Buffer | undefined;
   for (const d of DOWNLOADS) {
     const key = cache ? digest([cache.reportKey, d.key]) : "";
     if (cache && cache.manifest.reuse(d.path, key)) continue;
@@ -51,7 +55,7 @@ export function writeDownloads(
       const info = streamed(report, file, d.path, cache);
       if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs, cache.objectKeys ? info.segments : undefined);
     } else {
-      const info = writeTextFile(file, d.render(report));
+      const info = d.chunks ? writeChunksFile(file, d.chunks(report), (scratch ??= Buffer.allocUnsafe(CHUNK_BUFFER_BYTES))) : writeTextFile(file, d.render(report));
       if (cache) cache.manifest.wrote(d.path, key, info.size, info.mtimeMs);
     }
     written++;

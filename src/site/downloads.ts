@@ -1,10 +1,10 @@
 import type { AuditReport } from "../audit/types.js";
-import { bibtexFromParts } from "./bibtex.js";
-import { csvFromLines } from "./csv.js";
+import { bibtexChunks } from "./bibtex.js";
+import { csvChunks } from "./csv.js";
 import { TABLE_COLUMNS } from "./table.js";
 import type { CombinedValues } from "../combine/types.js";
 import { combineObject } from "../combine/combine-object.js";
-import { referenceTableFromRows } from "../export/votable.js";
+import { referenceTableChunks } from "../export/votable.js";
 import { fragmentsOf } from "./fragments.js";
 import { jsonStreamedText } from "./json-stream.js";
 import { auditJsonText } from "../cache/lazy-audit.js";
@@ -48,38 +48,52 @@ export interface Download {
   readonly title: string;
   readonly format: string;
   readonly render: (report: AuditReport) => string;
+  /** The same text in pieces, when the file is written through a buffer rather than as one string (see writeDownloads). */
+  readonly chunks?: (report: AuditReport) => Iterable<string>;
+}
+
+/** A download made of pieces: its text is their concatenation. */
+function inPieces(d: Omit<Download, "render" | "chunks"> & { readonly chunks: (report: AuditReport) => Iterable<string> }): Download {
+  return { ...d, render: (report) => [...d.chunks(report)].join("") };
+}
+
+function* tableJsonChunks(report: AuditReport): Generator<string> {
+  const rows = present(report.objects.map((o) => fragmentsOf(o).json));
+  const empty = JSON.stringify({ tool: report.tool, settings: report.settings, columns: TABLE_COLUMNS, rows: [] }, null, 1);
+  if (rows.length === 0) {
+    yield empty + "\n";
+    return;
+  }
+  const tail = '"rows": []\n}';
+  yield empty.slice(0, -tail.length) + '"rows": [\n';
+  for (let i = 0; i < rows.length; i++) yield i === 0 ? rows[i] : ",\n" + rows[i];
+  yield "\n ]\n}\n";
 }
 
 export const DOWNLOADS: readonly Download[] = [
-  {
+  inPieces({
     key: "table_csv",
     path: "downloads/reference-table.csv",
     title: "Reference table",
     format: "CSV (RFC 4180)",
     // toCsv(TABLE_COLUMNS, tableRows(report)), line by line
-    render: (report) => csvFromLines(TABLE_COLUMNS, present(report.objects.map((o) => fragmentsOf(o).csv))),
-  },
-  {
+    chunks: (report) => csvChunks(TABLE_COLUMNS, present(report.objects.map((o) => fragmentsOf(o).csv))),
+  }),
+  inPieces({
     key: "table_json",
     path: "downloads/reference-table.json",
     title: "Reference table",
     format: "JSON",
     // JSON.stringify({ tool, settings, columns, rows: tableRows(report) }, null, 1), row by row
-    render: (report) => {
-      const rows = present(report.objects.map((o) => fragmentsOf(o).json));
-      const empty = JSON.stringify({ tool: report.tool, settings: report.settings, columns: TABLE_COLUMNS, rows: [] }, null, 1);
-      const tail = '"rows": []\n}';
-      if (rows.length === 0) return empty + "\n";
-      return empty.slice(0, -tail.length) + '"rows": [\n' + rows.join(",\n") + "\n ]\n}\n";
-    },
-  },
-  {
+    chunks: tableJsonChunks,
+  }),
+  inPieces({
     key: "table_votable",
     path: "downloads/reference-table.vot",
     title: "Reference values combined per object and result",
     format: "VOTable 1.4",
-    render: (report) => referenceTableFromRows(report, report.objects.map((o) => fragmentsOf(o).votable)),
-  },
+    chunks: (report) => referenceTableChunks(report, report.objects.map((o) => fragmentsOf(o).votable)),
+  }),
   {
     key: "audit_json",
     path: AUDIT_JSON_PATH,
@@ -87,12 +101,12 @@ export const DOWNLOADS: readonly Download[] = [
     format: "JSON",
     render: (report) => jsonStreamedText(report as unknown as Record<string, unknown>, AUDIT_JSON_STREAMED, AUDIT_JSON_ELEMENTS),
   },
-  {
+  inPieces({
     key: "references_bib",
     path: "downloads/references.bib",
     title: "References of every measurement",
     format: "BibTeX",
     // bibtexFile(report), object by object
-    render: (report) => bibtexFromParts(report.tool.version, report.objects.map((o) => fragmentsOf(o).bib)),
-  },
+    chunks: (report) => bibtexChunks(report.tool.version, report.objects.map((o) => fragmentsOf(o).bib)),
+  }),
 ];

@@ -1,5 +1,6 @@
 import { closeSync, fstatSync, mkdirSync, openSync, writeSync } from "node:fs";
 import path from "node:path";
+import { BufferedFile } from "../cache/buffered-file.js";
 import { objectPath } from "./table.js";
 import type { PageInput, PageRenderer } from "./page-render.js";
 
@@ -18,6 +19,24 @@ export function objectPageFile(outDir: string, id: string): string {
 /** Writes text to a file (its folder made if need be) and gives the size and time it then has, for the output manifest. */
 export function writeTextFile(file: string, text: string): { size: number; mtimeMs: number } {
   return writeBytesFile(file, Buffer.from(text, "utf8"));
+}
+
+/**
+ * As writeTextFile, for text in pieces, gathered in `scratch` (a buffer the
+ * caller reuses from file to file) and written a buffer at a time.
+ */
+export function writeChunksFile(file: string, chunks: Iterable<string>, scratch: Buffer): { size: number; mtimeMs: number } {
+  mkdirSync(path.dirname(file), { recursive: true });
+  const fd = openSync(file, "w");
+  try {
+    const out = new BufferedFile(fd, scratch);
+    for (const c of chunks) out.putText(c);
+    out.flush();
+    const info = fstatSync(fd);
+    return { size: info.size, mtimeMs: info.mtimeMs };
+  } finally {
+    closeSync(fd);
+  }
 }
 
 /** As writeTextFile, for bytes. */
