@@ -1,4 +1,4 @@
-import { closeSync, fstatSync, mkdtempSync, openSync, readSync, rmSync, statSync, type BigIntStats } from "node:fs";
+import { mkdtempSync, rmSync, statSync, type BigIntStats } from "node:fs";
 import os, { availableParallelism } from "node:os";
 import path from "node:path";
 import { compiledWorkerUrl, runBatches } from "../workers/batch-pool.js";
@@ -15,7 +15,7 @@ import { folderDigest, toolFingerprint } from "../cache/fingerprint.js";
 import type { OutputManifest } from "../cache/output-manifest.js";
 import { DEFAULT_SET } from "../constants/sets.js";
 import type { Problem } from "../problem.js";
-import { DEFAULT_MAX_FILE_BYTES, duplicateIdProblem, fileTooLargeProblems, fileUnreadableProblems, listRecordFiles } from "../records/load.js";
+import { DEFAULT_MAX_FILE_BYTES, duplicateIdProblem, listRecordFiles } from "../records/load.js";
 import { compareProblems, compareText } from "../records/problem-list.js";
 import { adoptHomeRowHtml } from "../site/home-rows.js";
 import { adoptRendering, knownRendering } from "../site/render-store.js";
@@ -32,9 +32,11 @@ import {
   closeSpills,
   fileProblems,
   parseFiles,
+  readKeyed,
   sortAsReport,
   writeEntryPages,
   type FileToAudit,
+  type FileToRead,
   type PageWritten,
   type RecordEntry,
 } from "./record-work.js";
@@ -93,7 +95,7 @@ export interface PipelineStats {
   readonly files: number;
   /** Files whose entry was reused: neither parsed nor audited. */
   readonly reused: number;
-  /** Record files parsed and audited in this run. */
+  /** Record files parsed and audited in this run (when the workers read the files themselves, also those they found unreadable or too large). */
   readonly audited: number;
   readonly pagesWritten: number;
   readonly pagesKept: number;
@@ -150,10 +152,10 @@ function auditOnWorkers(
   url: URL,
   count: number,
   data: RecordWorkerData,
-  files: readonly FileToAudit[],
+  files: ReadonlyArray<FileToAudit | FileToRead>,
   onDone: (entries: readonly RecordEntry[], pages: readonly PageWritten[]) => void,
 ): Promise<void> {
-  return runBatches<FileToAudit, RecordWorkerReply>({
+  return runBatches<FileToAudit | FileToRead, RecordWorkerReply>({
     url,
     count,
     workerData: data,
@@ -183,38 +185,13 @@ export interface FolderKeys {
   readonly reportKey?: string;
 }
 
-function readKeyed(absolute: string, file: string, shared: string): { key: string; bytes: Buffer; stats: BigIntStats } | RecordEntry {
+/** The record files of a folder, or undefined when it is not a readable folder. */
+async function listFolder(dir: string): Promise<string[] | undefined> {
+  if (!isFolder(dir)) return undefined;
   try {
-    const read = readWhole(absolute, DEFAULT_MAX_FILE_BYTES);
-    if (typeof read === "number") return { file, key: digest([shared, file, `size:${read}`]), problems: fileTooLargeProblems(file, read) };
-    return { key: digest([shared, file, read.bytes]), ...read };
-  } catch (e) {
-    return { file, key: "", problems: fileUnreadableProblems(file, e as Error) };
-  }
-}
-
-/**
- * The bytes of a file as its size was when opened, with its stats from before
- * the reads, or that size when it is above `limit`: one open, one stat, the
- * reads and one close, one system call fewer than a stat and readFileSync
- * (ten thousand record files are read and keyed on a first build).
- */
-function readWhole(file: string, limit: number): { bytes: Buffer; stats: BigIntStats } | number {
-  const fd = openSync(file, "r");
-  try {
-    const stats = fstatSync(fd, { bigint: true });
-    const size = Number(stats.size);
-    if (size > limit) return size;
-    const bytes = Buffer.allocUnsafe(size);
-    let used = 0;
-    while (used < size) {
-      const n = readSync(fd, bytes, used, size - used, used);
-      if (n === 0) break;
-      used += n;
-    }
-    return { bytes: used === size ? bytes : bytes.subarray(0, used), stats };
-  } finally {
-    closeSync(fd);
+    return await listRecordFiles(dir);
+  } catch {
+    return undefined;
   }
 }
 
@@ -226,13 +203,8 @@ function readWhole(file: string, limit: number): { bytes: Buffer; stats: BigIntS
  */
 export async function keyRecordFolder(recordsDir: string, audit: RunOptions, cacheDir?: string): Promise<FolderKeys | undefined> {
   const dir = path.resolve(recordsDir);
-  if (!isFolder(dir)) return undefined;
-  let files: string[];
-  try {
-    files = await listRecordFiles(dir);
-  } catch {
-    return undefined;
-  }
+  const files = await listFolder(dir);
+  if (files === undefined) return undefined;
   const shared = settingsKey(audit);
   const index = cacheDir !== undefined ? new StatIndex(cacheFileFor(cacheDir, "stats", dir).replace(/\.bin$/, ".json"), shared) : undefined;
   const bytes: Array<Buffer | undefined> = [];
@@ -298,13 +270,20 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   if (options.summariesOnly && (pages || options.cacheDir !== undefined)) {
     throw new Error("runPipeline: summariesOnly leaves out what pages and the cache need of each audit");
   }
-  const folder = keyed ?? (await keyRecordFolder(dir, options.audit, options.cacheDir));
-  if (folder === undefined) {
+  const workers = options.workers ?? Math.max(1, availableParallelism());
+  const minFiles = options.minFilesForWorkers ?? 200;
+  // with no cache, no file's key is compared with anything before it is audited: the workers read and key
+  // the files themselves, from the start, while this thread would still be reading them
+  const listed = keyed === undefined && options.cacheDir === undefined && workers > 0 ? await listFolder(dir) : undefined;
+  const readThere = listed !== undefined && listed.length >= minFiles && recordWorkerUrl() !== undefined;
+  const folder = readThere ? undefined : (keyed ?? (await keyRecordFolder(dir, options.audit, options.cacheDir)));
+  if (folder === undefined && !readThere) {
     // a missing or unreadable folder: one problem, nothing to cache, no object pages
     const report = await runAudit(dir, options.audit);
     return { report, stats: { files: 0, reused: 0, audited: 0, pagesWritten: 0, pagesKept: 0, pagesRemoved: 0 } };
   }
-  const { files, shared } = folder;
+  const files = folder?.files ?? listed!;
+  const shared = folder?.shared ?? settingsKey(options.audit);
   const cacheFolder = options.cacheDir !== undefined ? recordCacheFolder(options.cacheDir, dir) : undefined;
   const previous = options.cacheDir !== undefined ? readRecordCache(options.cacheDir, dir) : new Map<string, RecordEntry>();
   const siteKey = pages ? pageSiteKey(pages.includesDir, pages.site) : "";
@@ -313,9 +292,14 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   const slots: Array<RecordEntry | undefined> = new Array(files.length);
   const index = new Map<string, number>();
   const toAudit: FileToAudit[] = [];
+  const toRead: FileToRead[] = [];
   let reused = 0;
   files.forEach((file, i) => {
     index.set(file, i);
+    if (folder === undefined) {
+      toRead.push({ file, dir, shared });
+      return;
+    }
     const known = folder.keys[i];
     if (typeof known !== "string") {
       slots[i] = known;
@@ -341,14 +325,14 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
     }
     toAudit.push({ file, key: r.key, bytes: r.bytes });
   });
+  const items: ReadonlyArray<FileToAudit | FileToRead> = readThere ? toRead : toAudit;
 
   // one renderer on this thread for the pages and home rows not made on a worker, made when first needed
   let mainRenderer: PageRenderer | undefined;
   const renderer = (): PageRenderer => (mainRenderer ??= createPageRenderer(pages!.includesDir, pages!.site));
   // parse and audit the rest, writing their pages as they come
   const written = new Map<string, PageWritten>();
-  const workers = options.workers ?? Math.max(1, availableParallelism());
-  const url = workers > 0 && toAudit.length >= (options.minFilesForWorkers ?? 200) ? recordWorkerUrl() : undefined;
+  const url = workers > 0 && items.length >= minFiles ? recordWorkerUrl() : undefined;
   if (url) {
     const data: RecordWorkerData = {
       options: options.audit,
@@ -358,7 +342,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
       // a site, or the JSON report, needs of each audit its summary, fragments and text: the rest waits in a spill file (with summariesOnly it is not sent)
       ...(pages || options.objectJson ? { spillDir: spillFolder() } : {}),
     };
-    await auditOnWorkers(url, Math.min(workers, Math.ceil(toAudit.length / BATCH)), data, toAudit, (entries, done) => {
+    await auditOnWorkers(url, Math.min(workers, Math.ceil(items.length / BATCH)), data, items, (entries, done) => {
       for (const e of entries) slots[index.get(e.file)!] = e;
       for (const p of done) written.set(p.id, p);
       options.onAudited?.(entries);
@@ -420,7 +404,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
       // a cache that cannot be written only makes the next build slower
     }
   }
-  const stats = { files: files.length, reused, audited: toAudit.length, pagesWritten, pagesKept, pagesRemoved };
+  const stats = { files: files.length, reused, audited: items.length, pagesWritten, pagesKept, pagesRemoved };
   const objectKeys = new Map<ObjectAudit, string>();
   const withJson = new Map<ObjectAudit, RecordEntry>();
   for (const e of kept) {

@@ -1,14 +1,16 @@
 import { auditRecords, auditRecordsParallel, type RunOptions } from "../audit/audit-records.js";
 import type { ObjectAudit } from "../audit/types.js";
 import type { Problem } from "../problem.js";
-import { loadRecordBytes } from "../records/load.js";
+import { DEFAULT_MAX_FILE_BYTES, fileTooLargeProblems, fileUnreadableProblems, loadRecordBytes } from "../records/load.js";
 import type { Location, ObjectRecord } from "../records/types.js";
 import type { PageRenderer } from "../site/page-render.js";
 import { renderAndWrite, type WrittenPage } from "../site/page-writer.js";
 import { adoptFragments, fragmentsOf, type ObjectFragments } from "../site/fragments.js";
 import { lazyAudit, storeAudit, summaryOf, type AuditSummary } from "../cache/lazy-audit.js";
 import { readRange, type StoreCodec } from "../cache/record-store.js";
-import { closeSync, openSync, writeSync } from "node:fs";
+import { closeSync, fstatSync, openSync, readSync, writeSync, type BigIntStats } from "node:fs";
+import path from "node:path";
+import { digest } from "../cache/digest.js";
 
 /** What the cache keeps of one record file. */
 export interface RecordEntry {
@@ -41,11 +43,70 @@ export interface SpillPlace {
   readonly length: number;
 }
 
+/** A record file read and keyed (its stats as it was opened), or the entry of one that could not be read or is too large. */
+export function readKeyed(absolute: string, file: string, shared: string): { key: string; bytes: Buffer; stats: BigIntStats } | RecordEntry {
+  try {
+    const read = readWhole(absolute, DEFAULT_MAX_FILE_BYTES);
+    if (typeof read === "number") return { file, key: digest([shared, file, `size:${read}`]), problems: fileTooLargeProblems(file, read) };
+    return { key: digest([shared, file, read.bytes]), ...read };
+  } catch (e) {
+    return { file, key: "", problems: fileUnreadableProblems(file, e as Error) };
+  }
+}
+
+/**
+ * The bytes of a file as its size was when opened, with its stats from before
+ * the reads, or that size when it is above `limit`: one open, one stat, the
+ * reads and one close, one system call fewer than a stat and readFileSync
+ * (ten thousand record files are read and keyed on a first build).
+ */
+function readWhole(file: string, limit: number): { bytes: Buffer; stats: BigIntStats } | number {
+  const fd = openSync(file, "r");
+  try {
+    const stats = fstatSync(fd, { bigint: true });
+    const size = Number(stats.size);
+    if (size > limit) return size;
+    const bytes = Buffer.allocUnsafe(size);
+    let used = 0;
+    while (used < size) {
+      const n = readSync(fd, bytes, used, size - used, used);
+      if (n === 0) break;
+      used += n;
+    }
+    return { bytes: used === size ? bytes : bytes.subarray(0, used), stats };
+  } finally {
+    closeSync(fd);
+  }
+}
+
 /** A record file read and keyed, to be parsed and audited. */
 export interface FileToAudit {
   readonly file: string;
   readonly key: string;
   readonly bytes: Uint8Array;
+}
+
+/** A record file for a worker to read and key itself (readKeyed in `dir` with the shared part of the key) before it parses and audits it. */
+export interface FileToRead {
+  readonly file: string;
+  readonly dir: string;
+  readonly shared: string;
+}
+
+/** Reads and keys files to read, then parses every file: the entries of those that could not be read or are too large come as they are. */
+export function readAndParse(items: ReadonlyArray<FileToAudit | FileToRead>): RecordEntry[] {
+  const out: RecordEntry[] = [];
+  const toParse: FileToAudit[] = [];
+  for (const item of items) {
+    if ("bytes" in item) {
+      toParse.push(item);
+      continue;
+    }
+    const r = readKeyed(path.join(item.dir, ...item.file.split("/")), item.file, item.shared);
+    if ("bytes" in r) toParse.push({ file: item.file, key: r.key, bytes: r.bytes });
+    else out.push(r);
+  }
+  return [...out, ...parseFiles(toParse)];
 }
 
 /** A page written while auditing: its object id, the entry key it came from, its size and time. */

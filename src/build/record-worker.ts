@@ -9,17 +9,19 @@ import {
   attachHomeRows,
   auditEntries,
   packEntry,
-  parseFiles,
+  readAndParse,
   SpillFile,
   writeEntryPages,
   type FileToAudit,
+  type FileToRead,
   type PageWritten,
   type RecordEntry,
   type WireEntry,
 } from "./record-work.js";
 
 /**
- * A build worker: parses and audits the record files it is sent (Monte Carlo
+ * A build worker: parses and audits the record files it is sent, or reads and
+ * keys them first when it is sent only their names (Monte Carlo
  * included, on this thread) and, when asked, renders and writes each
  * object's page at once; it answers each batch with the entries and pages.
  */
@@ -38,7 +40,9 @@ export interface RecordWorkerData {
   readonly summariesOnly?: boolean;
 }
 
-export type RecordWorkerRequest = { readonly kind: "files"; readonly batch: number; readonly files: readonly FileToAudit[] } | { readonly kind: "end" };
+export type RecordWorkerRequest =
+  | { readonly kind: "files"; readonly batch: number; readonly files: ReadonlyArray<FileToAudit | FileToRead> }
+  | { readonly kind: "end" };
 
 export type RecordWorkerReply =
   | {
@@ -64,7 +68,7 @@ if (port) {
       return;
     }
     try {
-      const entries = parseFiles(msg.files);
+      const entries = readAndParse(msg.files);
       auditEntries(entries, data.options);
       if (data.objectJson) for (const e of entries) if (e.audit?.object) e.json = objectJsonText(e.audit.object);
       let pages: PageWritten[] = [];

@@ -102,14 +102,15 @@ describe("the compiled build on worker threads", () => {
     expect(readdirSync(childTmp).filter((n) => n.startsWith("steelyard-audits-"))).toEqual([]);
   });
 
-  it("checks on worker threads, sending only summaries, to the report of one thread when records clash or break", async () => {
-    // the same catalogue, with an id used twice, a file that is not YAML and a record that misses a field
+  it("checks on worker threads, which read the files and send only summaries, to the report of one thread when records clash or break", async () => {
+    // the same catalogue, with an id used twice, a file that is not YAML, a record that misses a field and a file over the size limit
     const mixed = path.join(temp, "mixed");
     cpSync(records, mixed, { recursive: true });
     const first = readFileSync(path.join(mixed, "000", "bnch-1.yaml"), "utf8");
     writeFileSync(path.join(mixed, "000", "bnch-1-again.yaml"), first);
     writeFileSync(path.join(mixed, "000", "broken.yaml"), "name: [unclosed\n");
     writeFileSync(path.join(mixed, "000", "no-measurements.yaml"), 'name: Lone\nid: "lone-1"\n');
+    writeFileSync(path.join(mixed, "000", "too-large.yaml"), "# " + "x".repeat(1024 * 1024) + "\n");
     const r = spawnSync(process.execPath, ["bin/steelyard.js", "check", mixed, "--json", "--draws", DRAWS], {
       cwd: ROOT,
       encoding: "utf8",
@@ -120,6 +121,7 @@ describe("the compiled build on worker threads", () => {
     const report = await runAudit(mixed, { draws: Number(DRAWS) });
     expect(report.problems.map((p) => p.code)).toEqual(expect.arrayContaining(["duplicate-id"]));
     expect(report.problems.some((p) => p.file === "000/broken.yaml")).toBe(true);
+    expect(report.problems.some((p) => p.file === "000/too-large.yaml")).toBe(true);
     expect(r.stdout).toBe([...reportJsonChunks(report)].join(""));
   });
 });
