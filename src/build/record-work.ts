@@ -235,6 +235,8 @@ function encodeEntry(whole: RecordEntry, auditBytes: boolean): { value: unknown;
 
 export const ENTRY_CODEC: StoreCodec<RecordEntry> = {
   encode: (whole) => encodeEntry(whole, true),
+  // an entry's only bytes, its audit's, are its blob
+  valuesHoldNoBytes: true,
   decode(v, blob) {
     const s = v as StoredEntry;
     if (!s || !s.audit) return s as RecordEntry;

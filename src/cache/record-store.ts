@@ -13,6 +13,8 @@ import { digest } from "./digest.js";
 
 export const SHARDS = 64;
 const BLOB_BUFFER_BYTES = 1 << 20;
+/** Room for a whole shard of a catalogue of tens of thousands of records; a larger shard reads on into new buffers. */
+const SHARD_READ_BYTES = 1 << 22;
 const KIND = "steelyard-records";
 
 interface Keyed {
@@ -47,6 +49,8 @@ export interface StoreCodec<T> {
   encode(entry: T): { readonly value: unknown; readonly blob?: Uint8Array };
   /** `blob` reads the entry's blob back, when it has one. */
   decode(value: unknown, blob?: () => Uint8Array): T;
+  /** No encoded value holds a byte array (those go in blobs): the shards can then be read through one reused buffer (see readChunkedFile). */
+  readonly valuesHoldNoBytes?: boolean;
 }
 
 const IDENTITY: StoreCodec<never> = {
@@ -114,8 +118,9 @@ function blobBytesOnDisk(file: string): number {
 /** Every entry of the store by record file; a missing or damaged shard is an empty one. */
 export function readRecordStore<T extends Keyed>(folder: string, codec: StoreCodec<T> = IDENTITY as StoreCodec<T>): Map<string, T> {
   const out = new Map<string, T>();
+  const scratch = codec.valuesHoldNoBytes ? Buffer.allocUnsafe(SHARD_READ_BYTES) : undefined;
   for (let n = 0; n < SHARDS; n++) {
-    const values = readChunkedFile(shardFile(folder, n), KIND);
+    const values = readChunkedFile(shardFile(folder, n), KIND, scratch);
     if (!values || values.length === 0) continue;
     const head = values[0] as ShardHead;
     if (!head || typeof head.blobs !== "string" || typeof head.blobBytes !== "number" || head.blobs.includes("/")) continue;
