@@ -40,6 +40,18 @@ function cli(...args: string[]): void {
   expect(r.status).toBe(0);
 }
 
+/** `check --json` of a folder by the compiled command line: its standard output. */
+function checkJson(dir: string): string {
+  const r = spawnSync(process.execPath, ["bin/steelyard.js", "check", dir, "--json", "--draws", DRAWS], {
+    cwd: ROOT,
+    encoding: "utf8",
+    maxBuffer: 1 << 28,
+    env: { ...process.env, TMPDIR: childTmp },
+  });
+  expect(r.stderr).toBe("");
+  return r.stdout;
+}
+
 /** The compiled buildSite on one thread (no build or page workers). */
 function oneThread(outDir: string): void {
   const script = `import(${JSON.stringify(path.join(ROOT, "dist/site/build.js"))}).then((m) => m.buildSite({ recordsDir: ${JSON.stringify(records)}, outDir: ${JSON.stringify(outDir)}, quiet: true, audit: { draws: ${DRAWS} }, pageWorkers: 0 }))`;
@@ -90,15 +102,9 @@ describe("the compiled build on worker threads", () => {
   });
 
   it("checks on worker threads to the very JSON report that one thread gives, and leaves no spill folder", async () => {
-    const r = spawnSync(process.execPath, ["bin/steelyard.js", "check", records, "--json", "--draws", DRAWS], {
-      cwd: ROOT,
-      encoding: "utf8",
-      maxBuffer: 1 << 28,
-      env: { ...process.env, TMPDIR: childTmp },
-    });
-    expect(r.stderr).toBe("");
+    const stdout = checkJson(records);
     const want = [...reportJsonChunks(await runAudit(records, { draws: Number(DRAWS) }))].join("");
-    expect(r.stdout).toBe(want);
+    expect(stdout).toBe(want);
     expect(readdirSync(childTmp).filter((n) => n.startsWith("steelyard-audits-"))).toEqual([]);
   });
 
@@ -111,18 +117,12 @@ describe("the compiled build on worker threads", () => {
     writeFileSync(path.join(mixed, "000", "broken.yaml"), "name: [unclosed\n");
     writeFileSync(path.join(mixed, "000", "no-measurements.yaml"), 'name: Lone\nid: "lone-1"\n');
     writeFileSync(path.join(mixed, "000", "too-large.yaml"), "# " + "x".repeat(1024 * 1024) + "\n");
-    const r = spawnSync(process.execPath, ["bin/steelyard.js", "check", mixed, "--json", "--draws", DRAWS], {
-      cwd: ROOT,
-      encoding: "utf8",
-      maxBuffer: 1 << 28,
-      env: { ...process.env, TMPDIR: childTmp },
-    });
-    expect(r.stderr).toBe("");
+    const stdout = checkJson(mixed);
     const report = await runAudit(mixed, { draws: Number(DRAWS) });
     expect(report.problems.map((p) => p.code)).toEqual(expect.arrayContaining(["duplicate-id"]));
     expect(report.problems.some((p) => p.file === "000/broken.yaml")).toBe(true);
     expect(report.problems.some((p) => p.file === "000/too-large.yaml")).toBe(true);
-    expect(r.stdout).toBe([...reportJsonChunks(report)].join(""));
+    expect(stdout).toBe([...reportJsonChunks(report)].join(""));
   });
 });
 
