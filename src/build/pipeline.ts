@@ -199,11 +199,12 @@ async function listFolder(dir: string): Promise<string[] | undefined> {
  * Reads and keys every record file of `recordsDir`; undefined when it is not a
  * readable folder. With `cacheDir`, a file whose stats are those it had when
  * last keyed takes its key from the stat index there (src/cache/stat-index.ts)
- * without being read; its bytes are then not in FolderKeys.bytes.
+ * without being read; its bytes are then not in FolderKeys.bytes. `listed`:
+ * the folder's record files, when they have been listed already.
  */
-export async function keyRecordFolder(recordsDir: string, audit: RunOptions, cacheDir?: string): Promise<FolderKeys | undefined> {
+export async function keyRecordFolder(recordsDir: string, audit: RunOptions, cacheDir?: string, listed?: readonly string[]): Promise<FolderKeys | undefined> {
   const dir = path.resolve(recordsDir);
-  const files = await listFolder(dir);
+  const files = listed ?? (await listFolder(dir));
   if (files === undefined) return undefined;
   const shared = settingsKey(audit);
   const index = cacheDir !== undefined ? new StatIndex(cacheFileFor(cacheDir, "stats", dir).replace(/\.bin$/, ".json"), shared) : undefined;
@@ -276,7 +277,7 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   // the files themselves, from the start, while this thread would still be reading them
   const listed = keyed === undefined && options.cacheDir === undefined && workers > 0 ? await listFolder(dir) : undefined;
   const readThere = listed !== undefined && listed.length >= minFiles && recordWorkerUrl() !== undefined;
-  const folder = readThere ? undefined : (keyed ?? (await keyRecordFolder(dir, options.audit, options.cacheDir)));
+  const folder = readThere ? undefined : (keyed ?? (await keyRecordFolder(dir, options.audit, options.cacheDir, listed)));
   if (folder === undefined && !readThere) {
     // a missing or unreadable folder: one problem, nothing to cache, no object pages
     const report = await runAudit(dir, options.audit);
@@ -292,14 +293,11 @@ export async function runPipeline(recordsDir: string, options: PipelineOptions, 
   const slots: Array<RecordEntry | undefined> = new Array(files.length);
   const index = new Map<string, number>();
   const toAudit: FileToAudit[] = [];
-  const toRead: FileToRead[] = [];
+  // read there: every file goes to the workers by name
+  const toRead: FileToRead[] = readThere ? files.map((file) => ({ file, dir, shared })) : [];
   let reused = 0;
-  files.forEach((file, i) => {
-    index.set(file, i);
-    if (folder === undefined) {
-      toRead.push({ file, dir, shared });
-      return;
-    }
+  files.forEach((file, i) => index.set(file, i));
+  folder?.files.forEach((file, i) => {
     const known = folder.keys[i];
     if (typeof known !== "string") {
       slots[i] = known;

@@ -26,26 +26,27 @@ export function writeTextFile(file: string, text: string): { size: number; mtime
  * caller reuses from file to file) and written a buffer at a time.
  */
 export function writeChunksFile(file: string, chunks: Iterable<string>, scratch: Buffer): { size: number; mtimeMs: number } {
-  mkdirSync(path.dirname(file), { recursive: true });
-  const fd = openSync(file, "w");
-  try {
+  return writeFileWith(file, (fd) => {
     const out = new BufferedFile(fd, scratch);
     for (const c of chunks) out.putText(c);
     out.flush();
-    const info = fstatSync(fd);
-    return { size: info.size, mtimeMs: info.mtimeMs };
-  } finally {
-    closeSync(fd);
-  }
+  });
 }
 
 /** As writeTextFile, for bytes. */
 export function writeBytesFile(file: string, bytes: Uint8Array): { size: number; mtimeMs: number } {
+  return writeFileWith(file, (fd) => {
+    let off = 0;
+    while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
+  });
+}
+
+/** Makes the file's folder, lets `write` fill the open file, and gives its size and time then. */
+function writeFileWith(file: string, write: (fd: number) => void): { size: number; mtimeMs: number } {
   mkdirSync(path.dirname(file), { recursive: true });
   const fd = openSync(file, "w");
   try {
-    let off = 0;
-    while (off < bytes.length) off += writeSync(fd, bytes, off, bytes.length - off);
+    write(fd);
     const info = fstatSync(fd);
     return { size: info.size, mtimeMs: info.mtimeMs };
   } finally {
