@@ -1,8 +1,8 @@
 import fc from "fast-check";
-import { readFileSync, statSync } from "node:fs";
+import { readFileSync, statSync, writeFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { writeChunksFile } from "../../src/site/page-writer.js";
+import { writeBytesFile, writeChunksFile, writeTextFile } from "../../src/site/page-writer.js";
 import { tempDirs } from "./helpers/temp-dirs.js";
 
 /** A file written in pieces through a small reused buffer holds the bytes of the whole text, encoded once. */
@@ -28,4 +28,27 @@ describe("writeChunksFile", () => {
       { numRuns: 200 },
     );
   });
+});
+
+describe("writing over a file that is there", () => {
+  it("leaves exactly the new bytes, whether they are longer or shorter than the old ones", () => {
+    const dir = temp("over");
+    const text = fc.string({ unit: "grapheme", maxLength: 300 });
+    let n = 0;
+    fc.assert(
+      fc.property(text, text, fc.constantFrom("text", "bytes", "chunks"), (before, after, how) => {
+        const file = path.join(dir, `f${n++}.html`);
+        writeFileSync(file, before);
+        const scratch = Buffer.alloc(16);
+        const info =
+          how === "text" ? writeTextFile(file, after) : how === "bytes" ? writeBytesFile(file, Buffer.from(after, "utf8")) : writeChunksFile(file, [after, after], scratch);
+        const want = Buffer.from(how === "chunks" ? after + after : after, "utf8");
+        expect(readFileSync(file).equals(want)).toBe(true);
+        expect(info.size).toBe(want.length);
+        expect(statSync(file).size).toBe(want.length);
+      }),
+      { numRuns: 200 },
+    );
+  });
+
 });
