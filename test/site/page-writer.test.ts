@@ -50,5 +50,4 @@ describe("writing over a file that is there", () => {
       { numRuns: 200 },
     );
   });
-
 });
