@@ -1,4 +1,5 @@
 import { createRequire } from "node:module";
+import { compactKatex } from "./katex-compact.js";
 import { probeTex, splice, templateOf, texSkeleton, type SpliceTemplate } from "./tex-skeleton.js";
 
 /**
@@ -6,6 +7,10 @@ import { probeTex, splice, templateOf, texSkeleton, type SpliceTemplate } from "
  * wrote itself (method equations, numbers from latexNumber, unit LaTeX from
  * the unit catalogue), never record text. Bad TeX is a programmer mistake:
  * it fails the build instead of shipping red text.
+ *
+ * Every string KaTeX returns is compacted at once (katex-compact.ts: classes
+ * no style sheet reads, and the long way of writing inline styles, taken out
+ * of the HTML part), so "KaTeX's output" below means the compacted output.
  *
  * Each equation shape is typeset once. A substituted equation differs from
  * the next one of its method only in its numbers, so its skeleton (the TeX
@@ -29,6 +34,9 @@ const OPTIONS = {
   strict: "error",
   output: "htmlAndMathml",
 } as const;
+
+/** Which compaction of KaTeX's output (katex-compact.ts) the strings have: part of what a kept shape depends on. */
+const COMPACTION = 1;
 
 type Shape =
   | { readonly kind: "splice"; readonly template: SpliceTemplate }
@@ -60,7 +68,7 @@ function katex(): Katex {
 /** The KaTeX version that typesets here, and the options it is given: what a kept shape depends on besides this code. */
 export function typesetterId(): string {
   const { version } = createRequire(import.meta.url)("katex/package.json") as { version: string };
-  return JSON.stringify({ katex: version, options: OPTIONS });
+  return JSON.stringify({ katex: version, options: OPTIONS, compacted: COMPACTION });
 }
 
 /** Shapes learned on this thread and not yet handed out by takeLearnedShapes, by key. */
@@ -86,7 +94,7 @@ function typeset(tex: string, displayMode: boolean): { ok: true; html: string } 
   typesetCount++;
   let html: string;
   try {
-    html = katex().renderToString(tex, { ...OPTIONS, trust, displayMode });
+    html = compactKatex(katex().renderToString(tex, { ...OPTIONS, trust, displayMode }));
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     return {

@@ -159,7 +159,8 @@ const SWAPPABLE_CLASSES: ReadonlySet<string> = new Set([
 
 const ANNOTATION_OPEN = '<annotation encoding="application/x-tex">';
 const ANNOTATION_CLOSE = "</annotation>";
-const SPAN_CLASS = /^<span class="([^"]*)"/;
+/** A span's opening tag, with its classes when it has any (compaction drops a class attribute left empty). */
+const SPAN_TAG = /^<span(?: class="([^"]*)")?[ >]/;
 const MATHML_TEXT = /^<(?:mn|mtext)[ >]/;
 
 type Region = "mathml" | "annotation" | "html";
@@ -172,8 +173,10 @@ function contextProblem(rendered: string, at: number, region: Region): string | 
   if (region === "annotation") return undefined;
   const tag = rendered.slice(open, close + 1);
   if (region === "mathml") return MATHML_TEXT.test(tag) ? undefined : `a number's MathML element is ${tag}`;
-  const classes = SPAN_CLASS.exec(tag);
+  const classes = SPAN_TAG.exec(tag);
   if (!classes) return `a number's HTML element is ${tag}`;
+  // a span without classes is set in the main font, whose digits are all alike
+  if (classes[1] === undefined) return undefined;
   for (const name of classes[1].split(" ")) {
     if (!SWAPPABLE_CLASSES.has(name)) return `a number is set with class ${name}, whose digits are not all alike`;
   }

@@ -8,6 +8,7 @@
  * 127.0.0.1, and every test ends by asserting that its context saw no
  * console error, page error, policy violation, failed request or 4xx/5xx.
  */
+import katex from "katex";
 import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
@@ -18,6 +19,7 @@ import { STATUSES } from "../../src/audit/types.js";
 import { serveStatic, type StaticServer } from "../../src/serve/static-server.js";
 import { buildSite, renderSite } from "../../src/site/build.js";
 import type { TableRow } from "../../src/site/table.js";
+import { compactKatex } from "../../src/site/katex-compact.js";
 import { launchChromium, requireChromium } from "./helpers/chromium.js";
 import { watchedContext } from "./helpers/context-watch.js";
 
@@ -35,6 +37,8 @@ let browser: Browser;
 let report: AuditReport;
 let rows: TableRow[];
 let site: StaticServer;
+/** Where the demo site was built (what `site` serves). */
+let siteDir: string;
 let subSite: StaticServer;
 const temp: string[] = [];
 
@@ -45,6 +49,7 @@ beforeAll(async () => {
   temp.push(dir);
   const out = path.join(dir, "site");
   const subOut = path.join(dir, "site-sub");
+  siteDir = out;
   const built = await buildSite({ recordsDir: DEMO_RECORDS, outDir: out, audit: { draws: DRAWS } });
   await renderSite({ report: built.report, outDir: subOut, basePath: SUB });
   // what the site offers for download, read back from the built files
@@ -147,6 +152,34 @@ function pngSize(png: Buffer): { width: number; height: number } {
   expect(png.subarray(0, 8).equals(signature), "PNG signature").toBe(true);
   expect(png.subarray(12, 16).toString("latin1")).toBe("IHDR");
   return { width: png.readUInt32BE(16), height: png.readUInt32BE(20) };
+}
+
+/** The TeX of every equation on a built page, with its display mode, from KaTeX's annotations (unescaped). */
+function pageEquations(html: string): Array<{ tex: string; displayMode: boolean }> {
+  const out: Array<{ tex: string; displayMode: boolean }> = [];
+  for (const m of html.matchAll(/<math xmlns="[^"]*"( display="block")?>.*?<annotation encoding="application\/x-tex">(.*?)<\/annotation>/g)) {
+    const tex = m[2].replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"').replace(/&#x27;/g, "'").replace(/&amp;/g, "&");
+    out.push({ tex, displayMode: m[1] !== undefined });
+  }
+  return out;
+}
+
+/** A bare page of equations with the site's style sheets. */
+function equationPage(equations: readonly string[]): string {
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><link rel="stylesheet" href="/assets/site.css"><link rel="stylesheet" href="/assets/katex/katex.min.css"></head><body><main>${equations.map((e) => `<div class="equation-box">${e}</div>`).join("")}</main></body></html>`;
+}
+
+/** Every box under each equation's HTML part, in document order, relative to the page, in CSS pixels. */
+async function equationBoxes(page: Page, url: string): Promise<number[][]> {
+  const response = await page.goto(url, { waitUntil: "load" });
+  expect(response?.status(), `status of ${url}`).toBe(200);
+  await page.evaluate(() => document.fonts.ready.then(() => undefined));
+  return page.$$eval(".katex-html, .katex-html *", (els) =>
+    els.map((el) => {
+      const r = el.getBoundingClientRect();
+      return [r.left + window.scrollX, r.top + window.scrollY, r.width, r.height];
+    }),
+  );
 }
 
 // ---------------------------------------------------------------- tests
@@ -515,6 +548,37 @@ describe("the demo site in Chromium", () => {
     // WCAG 2.1 (W3C, 2018) success criterion 1.4.3: at least 4.5:1 for body text
     expect(contrastRatio(light.fg, light.bg)).toBeGreaterThanOrEqual(4.5);
     expect(contrastRatio(dark.fg, dark.bg)).toBeGreaterThanOrEqual(4.5);
+    expect(w.problems()).toEqual([]);
+    await w.context.close();
+  });
+
+  it("lays out the compacted equations of an object page box for box as KaTeX's own output", async () => {
+    const built = readFileSync(path.join(siteDir, "objects", DISCREPANT_ID, "index.html"), "utf8");
+    const equations = pageEquations(built);
+    expect(equations.length).toBeGreaterThan(10);
+    const raw = equations.map(({ tex, displayMode }) =>
+      katex.renderToString(tex, { displayMode, throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" }),
+    );
+    const compact = raw.map(compactKatex);
+    // the page holds exactly the compacted strings, and they are smaller
+    compact.forEach((c, i) => expect(built.includes(c), equations[i].tex).toBe(true));
+    expect(compact.join("").length).toBeLessThan(0.95 * raw.join("").length);
+    // a control: one thin space made wider must show in the boxes
+    const altered = compact.map((c) => c.replace('style="margin-right:.1667em"', 'style="margin-right:.2em"'));
+    expect(altered.join("")).not.toBe(compact.join(""));
+    const pages = { raw, compact, altered };
+    for (const [name, eqs] of Object.entries(pages)) {
+      mkdirSync(path.join(siteDir, "layout-check", name), { recursive: true });
+      writeFileSync(path.join(siteDir, "layout-check", name, "index.html"), equationPage(eqs));
+    }
+    const w = await watchedContext(browser, { locale: LOCALE, viewport: { width: 1600, height: 900 } });
+    const page = await w.context.newPage();
+    const boxes: Record<string, number[][]> = {};
+    for (const name of Object.keys(pages)) boxes[name] = await equationBoxes(page, `${site.url}layout-check/${name}/`);
+    expect(boxes.raw.length).toBeGreaterThan(500);
+    expect(boxes.compact).toEqual(boxes.raw);
+    expect(boxes.altered.length).toBe(boxes.raw.length);
+    expect(boxes.altered).not.toEqual(boxes.raw);
     expect(w.problems()).toEqual([]);
     await w.context.close();
   });

@@ -1,4 +1,4 @@
-import katex from "katex";
+import { katexReference } from "./helpers/katex-reference.js";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { auditMeasurement, siUnitOf } from "../../src/audit/audit-measurement.js";
@@ -29,7 +29,7 @@ import { SAMPLES } from "../methods/sample-inputs.js";
 const REFERENCE_OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
 
 function direct(tex: string, displayMode: boolean): string {
-  return katex.renderToString(tex, { ...REFERENCE_OPTIONS, displayMode });
+  return katexReference(tex, { ...REFERENCE_OPTIONS, displayMode });
 }
 
 interface Case {

@@ -1,0 +1,126 @@
+import katex from "katex";
+import { readFileSync } from "node:fs";
+import path from "node:path";
+import { describe, expect, it } from "vitest";
+import { compactKatex, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
+import { METHODS } from "../../src/methods/index.js";
+import { templateOf, texSkeleton } from "../../src/site/tex-skeleton.js";
+
+const ROOT = path.resolve(__dirname, "../..");
+const OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
+const STYLE_SHEETS = [path.join(ROOT, "node_modules/katex/dist/katex.min.css"), path.join(ROOT, "content/assets/site.css")];
+
+/** Every class name a style sheet's selectors mention (comments and strings taken out first). */
+function classesIn(css: string): Set<string> {
+  const bare = css.replace(/\/\*[^]*?\*\//g, "").replace(/"[^"]*"|'[^']*'/g, '""');
+  const out = new Set<string>();
+  // selectors are the text before each "{"; declarations are skipped
+  for (const part of bare.split("}")) {
+    const selector = part.split("{")[0];
+    if (selector.trim().startsWith("@")) continue;
+    for (const m of selector.matchAll(/\.(-?[A-Za-z_][\w-]*)/g)) out.add(m[1]);
+  }
+  return out;
+}
+
+/** Equations of every kind the site typesets: each method's general forms and some substituted shapes. */
+function sampleTex(): Array<{ tex: string; display: boolean }> {
+  const out: Array<{ tex: string; display: boolean }> = [];
+  for (const m of METHODS) {
+    for (const e of m.equations) out.push({ tex: e.latex, display: true });
+    for (const i of m.inputs) out.push({ tex: i.symbol, display: false });
+    for (const r of m.results) out.push({ tex: r.symbol, display: false });
+  }
+  out.push(
+    { tex: "d = \\frac{1\\,\\mathrm{au}}{5.915\\times10^{-7}\\,\\mathrm{rad}} = 2.529\\times10^{17}\\,\\mathrm{m}", display: true },
+    { tex: "\\left(\\frac{P}{2\\pi\\mathcal{G}}\\right)^{1/3} K\\sqrt{1-e^{2}} = 0.0124\\,M_{\\odot}", display: true },
+    { tex: "M_{\\mathrm{tot}}", display: false },
+    { tex: "x = -0.5, 10.25, (a, b] \\leq \\sin^{3} i", display: false },
+  );
+  return out;
+}
+
+/** The opening tags and the text of an HTML string, in order, as a flat list. */
+function tokens(html: string): string[] {
+  return html.match(/<[^>]*>|[^<]+/g) ?? [];
+}
+
+/** A tag's name, classes (as a sorted list) and style declarations (property → number and unit as parsed by CSS). */
+function tagParts(tag: string): { name: string; classes: string[]; style: Record<string, string> } {
+  const name = /^<\/?([a-z]+)/.exec(tag)?.[1] ?? tag;
+  const classes = (/ class="([^"]*)"/.exec(tag)?.[1] ?? "").split(" ").filter((c) => c !== "").sort();
+  const style: Record<string, string> = {};
+  for (const decl of (/ style="([^"]*)"/.exec(tag)?.[1] ?? "").split(";")) {
+    if (decl === "") continue;
+    const [prop, value] = decl.split(":");
+    style[prop] = value.replace(/-?(?:\d+\.?\d*|\.\d+)/g, (n) => String(Number(n)));
+  }
+  return { name, classes, style };
+}
+
+describe("compacting KaTeX's output", () => {
+  it("drops only class names that neither katex.min.css nor site.css selects", () => {
+    const styled = new Set<string>();
+    for (const file of STYLE_SHEETS) for (const c of classesIn(readFileSync(file, "utf8"))) styled.add(c);
+    // the parser finds KaTeX's real rules (a control: an empty set would pass anything)
+    for (const c of ["katex", "katex-html", "mspace", "mfrac", "vlist", "mathnormal", "katex-sizing"]) expect(styled.has(c), c).toBe(true);
+    expect([...UNSTYLED_CLASSES].filter((c) => styled.has(c))).toEqual([]);
+    // no rule selects on the class attribute as a string, which would see the names go
+    for (const file of STYLE_SHEETS) expect(readFileSync(file, "utf8")).not.toMatch(/\[class/);
+  });
+
+  it("drops names that KaTeX does write", () => {
+    const seen = new Set<string>();
+    for (const { tex, display } of sampleTex()) {
+      for (const m of katex.renderToString(tex, { ...OPTIONS, displayMode: display }).matchAll(/ class="([^"]*)"/g)) {
+        for (const c of m[1].split(" ")) seen.add(c);
+      }
+    }
+    for (const c of ["mord", "mtight", "mbin", "mrel", "mopen", "mclose", "mpunct", "minner", "mop"]) expect(seen.has(c), c).toBe(true);
+  });
+
+  it("keeps the MathML and every element, text and styled class, with the same style values", () => {
+    let before = 0;
+    let after = 0;
+    for (const { tex, display } of sampleTex()) {
+      const raw = katex.renderToString(tex, { ...OPTIONS, displayMode: display });
+      const compact = compactKatex(raw);
+      before += raw.length;
+      after += compact.length;
+      const cut = raw.indexOf('<span class="katex-html"');
+      expect(compact.slice(0, cut)).toBe(raw.slice(0, cut));
+      const a = tokens(raw.slice(cut));
+      const b = tokens(compact.slice(cut));
+      expect(b.length).toBe(a.length);
+      a.forEach((t, i) => {
+        if (!t.startsWith("<")) return expect(b[i]).toBe(t);
+        const pa = tagParts(t);
+        const pb = tagParts(b[i]);
+        expect(pb.name).toBe(pa.name);
+        expect(pb.classes).toEqual(pa.classes.filter((c) => !UNSTYLED_CLASSES.has(c)));
+        expect(pb.style).toEqual(pa.style);
+        expect(b[i].length).toBeLessThanOrEqual(t.length);
+      });
+      expect(compactKatex(compact)).toBe(compact);
+    }
+    // what it is for: a sizeable share of the bytes
+    expect(after / before).toBeLessThan(0.95);
+  });
+
+  it("writes styles the short way without touching numbers that do not start with 0", () => {
+    const html = '<span class="katex-html"><span class="mord mathrm" style="height:0.6444em;vertical-align:-0.0833em;margin-right:10.05em;"></span><span class="mrel">0.5</span></span>';
+    expect(compactKatex(html)).toBe('<span class="katex-html"><span class="mathrm" style="height:.6444em;vertical-align:-.0833em;margin-right:10.05em"></span><span>0.5</span></span>');
+    // no HTML part: nothing to do
+    expect(compactKatex('<math><mi class="mord">x</mi></math>')).toBe('<math><mi class="mord">x</mi></math>');
+  });
+
+  it("leaves substituted shapes spliceable: their numbers sit in spans with no class or a font whose digits are alike", () => {
+    const { skeleton, runs } = texSkeleton("d = \\frac{1\\,\\mathrm{au}}{5.915\\times10^{-7}\\,\\mathrm{rad}} = 2.529\\times10^{17}\\,\\mathrm{m}");
+    const t = templateOf(compactKatex(katex.renderToString(skeleton, { ...OPTIONS, displayMode: true })), runs.length);
+    expect(t.ok).toBe(true);
+    // an italic number is still refused after its mord is dropped
+    const italic = texSkeleton("x = \\mathit{3.75}");
+    const refused = templateOf(compactKatex(katex.renderToString(italic.skeleton, OPTIONS)), italic.runs.length);
+    expect(refused.ok).toBe(false);
+  });
+});
