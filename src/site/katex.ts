@@ -36,7 +36,7 @@ const OPTIONS = {
 } as const;
 
 /** Which compaction of KaTeX's output (katex-compact.ts) the strings have: part of what a kept shape depends on. */
-const COMPACTION = 1;
+const COMPACTION = 2;
 
 type Shape =
   | { readonly kind: "splice"; readonly template: SpliceTemplate }
