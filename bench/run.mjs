@@ -8,7 +8,7 @@
 // belong to that step alone. Results go to bench/results/ as JSON (git-ignored).
 import { spawn, spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { existsSync, mkdirSync, mkdtempSync, openSync, closeSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, lstatSync, mkdirSync, mkdtempSync, openSync, closeSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -315,6 +315,7 @@ async function runSize(n, options, probe, cached, log) {
     return { ...r, code_version: codeBefore === codeAfter ? codeBefore : `${codeBefore}→${codeAfter}` };
   };
 
+  let siteBytes;
   for (const step of options.steps) {
     const runs = [];
     // a rebuild needs a site in place: build one, unmeasured, when no full build ran before
@@ -333,6 +334,8 @@ async function runSize(n, options, probe, cached, log) {
       runs.push({ seconds: r.seconds, peak_kb: r.peakKB ?? null, exit_code: r.code, code_version: r.code_version, ...(edit ? { edited: path.relative(records, edit.file) } : {}) });
       log(`  ${step.padEnd(12)} run ${k + 1}/${options.runs}: ${r.seconds.toFixed(2)} s, ${r.peakKB ? (r.peakKB / 1024).toFixed(0) + " MB" : "memory unknown"}`);
     }
+    // the site of the last full build, before a rebuild step changes it
+    if (step === "build") siteBytes = siteSize(site);
     const versions = new Set(runs.map((r) => r.code_version));
     if (versions.size > 1) log(`  warning: the ${step} runs ran ${versions.size} versions of the code (${[...versions].join(", ")}); their spread is not noise alone`);
     const secs = runs.map((r) => r.seconds);
@@ -350,7 +353,7 @@ async function runSize(n, options, probe, cached, log) {
 
   if (!options.keep) rmSync(work, { recursive: true, force: true });
   else log(`  kept: ${work}`);
-  return { objects: n, measurements: catalogue.measurements, record_bytes: catalogue.bytes, scenarios: catalogue.scenarios, intended: catalogue.intended, steps, ...(options.keep ? { work_dir: work } : {}) };
+  return { objects: n, measurements: catalogue.measurements, record_bytes: catalogue.bytes, scenarios: catalogue.scenarios, intended: catalogue.intended, steps, ...(siteBytes ? { site: siteBytes } : {}), ...(options.keep ? { work_dir: work } : {}) };
 }
 
 // ---------------------------------------------------------------------------
@@ -377,6 +380,31 @@ function tableRows(results) {
   return rows;
 }
 
+/** Bytes and count of the files under `dir` (links are not followed), and of those under its objects/ folder. */
+export function siteSize(dir) {
+  let bytes = 0;
+  let files = 0;
+  let objectBytes = 0;
+  let objectFiles = 0;
+  const walk = (d, inObjects) => {
+    for (const e of readdirSync(d, { withFileTypes: true })) {
+      const p = path.join(d, e.name);
+      if (e.isDirectory()) walk(p, inObjects || (d === dir && e.name === "objects"));
+      else if (e.isFile()) {
+        const size = lstatSync(p).size;
+        bytes += size;
+        files++;
+        if (inObjects) {
+          objectBytes += size;
+          objectFiles++;
+        }
+      }
+    }
+  };
+  walk(dir, false);
+  return { bytes, files, object_page_bytes: objectBytes, object_pages: objectFiles };
+}
+
 export function formatTable(results) {
   const head = { size: "objects", step: "step", median: "median s", min: "min s", max: "max s", peak: "peak MB", msPerObject: "ms/object", kbPerObject: "KB/object", ratio: "÷ baseline" };
   const rows = [head, ...tableRows(results)];
@@ -389,6 +417,14 @@ export function formatTable(results) {
     for (const [step, f] of Object.entries(results.fits)) {
       const sign = f.intercept_s < 0 ? "−" : "+";
       out.push(`  ${step.padEnd(12)} ${f.slope_ms_per_object.toFixed(3)} ms/object ${sign} ${Math.abs(f.intercept_s).toFixed(2)} s`);
+    }
+  }
+  const sized = results.sizes.filter((s) => s.site);
+  if (sized.length) {
+    out.push("", "Site written by the full build (bytes, so a change in page size shows):");
+    for (const s of sized) {
+      const { bytes, files, object_page_bytes: pageBytes, object_pages: pages } = s.site;
+      out.push(`  ${String(s.objects).padEnd(7)} ${(bytes / 1e6).toFixed(1)} MB in ${files} files; object pages ${(pageBytes / 1e6).toFixed(1)} MB, ${pages ? (pageBytes / pages / 1000).toFixed(1) : "-"} KB each`);
     }
   }
   return out.join("\n");

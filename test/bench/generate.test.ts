@@ -1,4 +1,4 @@
-import { mkdtempSync, readdirSync, readFileSync, rmSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { FILES_PER_FOLDER, generateCatalogue, objectRecord } from "../../bench/generate.mjs";
 import { editOnePublishedValue } from "../../bench/edit-record.mjs";
 import { mergeSummaries, moduleOf, summariseProfile } from "../../bench/profile.mjs";
-import { linearFit, median, parseOptions } from "../../bench/run.mjs";
+import { formatTable, linearFit, median, parseOptions, siteSize } from "../../bench/run.mjs";
 import { pathToFileURL } from "node:url";
 import { auditRecords } from "../../src/audit/audit-records.js";
 import type { AuditReport } from "../../src/audit/types.js";
@@ -294,5 +294,23 @@ describe("profile summary", () => {
     expect(m.idle_ms).toBe(3);
     expect(m.functions.map((f: { function: string; self_ms: number }) => [f.function, f.self_ms])).toEqual([["fill", 7], ["render", 7]]);
     expect(m.modules).toEqual([{ module: "dist/a.js", self_ms: 7 }, { module: "package katex", self_ms: 7 }]);
+  });
+});
+
+describe("the benchmark's site size", () => {
+  it("counts every file's bytes once, object pages apart, and does not follow links", () => {
+    const d = tempDir();
+    mkdirSync(path.join(d, "objects/a"), { recursive: true });
+    mkdirSync(path.join(d, "objects/b"), { recursive: true });
+    mkdirSync(path.join(d, "assets/objects"), { recursive: true });
+    writeFileSync(path.join(d, "index.html"), "x".repeat(100));
+    writeFileSync(path.join(d, "objects/a/index.html"), "y".repeat(1000));
+    writeFileSync(path.join(d, "objects/b/index.html"), "z".repeat(3000));
+    // a folder named objects elsewhere is not object pages
+    writeFileSync(path.join(d, "assets/objects/f.css"), "w".repeat(10));
+    symlinkSync(path.join(d, "objects/b/index.html"), path.join(d, "link.html"));
+    expect(siteSize(d)).toEqual({ bytes: 4110, files: 4, object_page_bytes: 4000, object_pages: 2 });
+    const table = formatTable({ sizes: [{ objects: 2, steps: {}, site: siteSize(d) }] });
+    expect(table).toContain("2       0.0 MB in 4 files; object pages 0.0 MB, 2.0 KB each");
   });
 });
