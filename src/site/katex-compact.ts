@@ -9,7 +9,7 @@
  * empty goes with them. Inline styles are written the short way, as CSS
  * reads them alike: no final semicolon, and ".5em" for "0.5em".
  *
- * Six empty spans make up about 15 % of an audit page even so: the struts of
+ * Six empty spans still make up about 15 % of an audit page: the struts of
  * scripts and fractions (height 2.7em and 3em), TeX's thin, medium and thick
  * spaces (3, 4 and 5 mu: .1667em, .2222em, .2778em) and the fraction rule
  * (.04em). Each always carries the same inline style, so it gets a class
@@ -19,8 +19,9 @@
  * Only the HTML part changes (it is aria-hidden: screen readers read the
  * MathML, which is left exactly as KaTeX wrote it, with its TeX annotation).
  * test/site/katex-compact.test.ts checks that no style sheet of the site
- * names a dropped class and that site.css has the rule of each style class, so a KaTeX upgrade that starts styling one of them
- * fails there, and the browser test lays out an equation both ways and
+ * names a dropped class (so a KaTeX upgrade that starts styling one of them
+ * fails there) and that site.css has the rule of each style class; the
+ * browser test lays out every equation of an object page both ways and
  * compares every box.
  */
 
