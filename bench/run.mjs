@@ -190,16 +190,21 @@ function measure(args, { probe, stdoutFile, stderrFile, nodeFlags = [] }) {
 // Which code ran: a hash of every file under dist/ and of the site's templates,
 // taken around every run, so that a run straddling a recompile says so.
 
-function hashTree(hash, dir, base) {
+/** Full paths of the files under `dir`, in name order within each folder; links are not followed. */
+function* filesIn(dir) {
   if (!existsSync(dir)) return;
   const entries = readdirSync(dir, { withFileTypes: true }).sort((a, b) => (a.name < b.name ? -1 : a.name > b.name ? 1 : 0));
   for (const e of entries) {
     const full = path.join(dir, e.name);
-    if (e.isDirectory()) hashTree(hash, full, base);
-    else if (e.isFile()) {
-      hash.update(path.relative(base, full) + "\0");
-      hash.update(readFileSync(full));
-    }
+    if (e.isDirectory()) yield* filesIn(full);
+    else if (e.isFile()) yield full;
+  }
+}
+
+function hashTree(hash, dir, base) {
+  for (const full of filesIn(dir)) {
+    hash.update(path.relative(base, full) + "\0");
+    hash.update(readFileSync(full));
   }
 }
 
@@ -382,27 +387,18 @@ function tableRows(results) {
 
 /** Bytes and count of the files under `dir` (links are not followed), and of those under its objects/ folder. */
 export function siteSize(dir) {
-  let bytes = 0;
-  let files = 0;
-  let objectBytes = 0;
-  let objectFiles = 0;
-  const walk = (d, inObjects) => {
-    for (const e of readdirSync(d, { withFileTypes: true })) {
-      const p = path.join(d, e.name);
-      if (e.isDirectory()) walk(p, inObjects || (d === dir && e.name === "objects"));
-      else if (e.isFile()) {
-        const size = lstatSync(p).size;
-        bytes += size;
-        files++;
-        if (inObjects) {
-          objectBytes += size;
-          objectFiles++;
-        }
-      }
+  const objects = path.join(dir, "objects") + path.sep;
+  const out = { bytes: 0, files: 0, object_page_bytes: 0, object_pages: 0 };
+  for (const full of filesIn(dir)) {
+    const size = lstatSync(full).size;
+    out.bytes += size;
+    out.files++;
+    if (full.startsWith(objects)) {
+      out.object_page_bytes += size;
+      out.object_pages++;
     }
-  };
-  walk(dir, false);
-  return { bytes, files, object_page_bytes: objectBytes, object_pages: objectFiles };
+  }
+  return out;
 }
 
 export function formatTable(results) {

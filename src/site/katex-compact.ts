@@ -38,7 +38,7 @@ export const STYLE_CLASSES: ReadonlyArray<{ readonly on: string; readonly declar
   { on: "frac-line", declaration: "border-bottom-width:.04em", name: "fl4" },
 ];
 
-const STYLED_EMPTY_SPAN = /<span class="(pstrut|mspace|frac-line)" style="([^"]*)"><\/span>/g;
+const STYLED_EMPTY_SPAN = new RegExp(`<span class="(${[...new Set(STYLE_CLASSES.map((c) => c.on))].join("|")})" style="([^"]*)"></span>`, "g");
 const CLASS_FOR = new Map(STYLE_CLASSES.map((c) => [`${c.on} ${c.declaration}`, `<span class="${c.on} ${c.name}"></span>`]));
 
 function classForStyle(span: string, on: string, declaration: string): string {

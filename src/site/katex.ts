@@ -35,9 +35,6 @@ const OPTIONS = {
   output: "htmlAndMathml",
 } as const;
 
-/** Which compaction of KaTeX's output (katex-compact.ts) the strings have: part of what a kept shape depends on. */
-const COMPACTION = 2;
-
 type Shape =
   | { readonly kind: "splice"; readonly template: SpliceTemplate }
   | { readonly kind: "direct"; readonly reason: string };
@@ -68,7 +65,7 @@ function katex(): Katex {
 /** The KaTeX version that typesets here, and the options it is given: what a kept shape depends on besides this code. */
 export function typesetterId(): string {
   const { version } = createRequire(import.meta.url)("katex/package.json") as { version: string };
-  return JSON.stringify({ katex: version, options: OPTIONS, compacted: COMPACTION });
+  return JSON.stringify({ katex: version, options: OPTIONS });
 }
 
 /** Shapes learned on this thread and not yet handed out by takeLearnedShapes, by key. */

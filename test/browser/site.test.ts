@@ -20,6 +20,7 @@ import { serveStatic, type StaticServer } from "../../src/serve/static-server.js
 import { buildSite, renderSite } from "../../src/site/build.js";
 import type { TableRow } from "../../src/site/table.js";
 import { compactKatex } from "../../src/site/katex-compact.js";
+import { decodeEntities } from "../site/helpers/html-scan.js";
 import { launchChromium, requireChromium } from "./helpers/chromium.js";
 import { watchedContext } from "./helpers/context-watch.js";
 
@@ -158,8 +159,7 @@ function pngSize(png: Buffer): { width: number; height: number } {
 function pageEquations(html: string): Array<{ tex: string; displayMode: boolean }> {
   const out: Array<{ tex: string; displayMode: boolean }> = [];
   for (const m of html.matchAll(/<math xmlns="[^"]*"( display="block")?>.*?<annotation encoding="application\/x-tex">(.*?)<\/annotation>/g)) {
-    const tex = m[2].replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"').replace(/&#x27;/g, "'").replace(/&amp;/g, "&");
-    out.push({ tex, displayMode: m[1] !== undefined });
+    out.push({ tex: decodeEntities(m[2]), displayMode: m[1] !== undefined });
   }
   return out;
 }

@@ -5,6 +5,7 @@ import { describe, expect, it } from "vitest";
 import { compactKatex, STYLE_CLASSES, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
 import { METHODS } from "../../src/methods/index.js";
 import { templateOf, texSkeleton } from "../../src/site/tex-skeleton.js";
+import { startTags } from "./helpers/html-scan.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
@@ -40,7 +41,7 @@ function sampleTex(): Array<{ tex: string; display: boolean }> {
   return out;
 }
 
-/** The opening tags and the text of an HTML string, in order, as a flat list. */
+/** The tags (start and end) and the text of an HTML string, in order, as a flat list. */
 function tokens(html: string): string[] {
   return html.match(/<[^>]*>|[^<]+/g) ?? [];
 }
@@ -51,9 +52,11 @@ function tokens(html: string): string[] {
  * it stands for.
  */
 function tagParts(tag: string): { name: string; classes: string[]; style: Record<string, string> } {
-  const name = /^<\/?([a-z]+)/.exec(tag)?.[1] ?? tag;
-  let classes = (/ class="([^"]*)"/.exec(tag)?.[1] ?? "").split(" ").filter((c) => c !== "").sort();
-  const declarations = (/ style="([^"]*)"/.exec(tag)?.[1] ?? "").split(";");
+  const start = startTags(tag)[0];
+  // an end tag has no attributes and is compared whole
+  const name = start?.name ?? tag;
+  let classes = (start?.attributes.get("class") ?? "").split(" ").filter((c) => c !== "").sort();
+  const declarations = (start?.attributes.get("style") ?? "").split(";");
   for (const c of STYLE_CLASSES) {
     if (classes.includes(c.name)) {
       expect(classes).toContain(c.on);
