@@ -1,3 +1,5 @@
+import { classMapFor, katexStylesheet, renameSelectors } from "./katex-classes.js";
+
 /**
  * KaTeX's HTML output with the bytes that no style sheet reads taken out.
  *
@@ -13,14 +15,19 @@
  * scripts and fractions (height 2.7em and 3em), TeX's thin, medium and thick
  * spaces (3, 4 and 5 mu: .1667em, .2222em, .2778em) and the fraction rule
  * (.04em). Each always carries the same inline style, so it gets a class
- * instead, whose rule in site.css sets that same declaration
- * (STYLE_CLASSES; the test checks the rules).
+ * instead, whose rule sets that same declaration (STYLE_CLASSES; the rules
+ * are written into the site's copy of KaTeX's style sheet).
+ *
+ * Last, every remaining class of the HTML part is written with its short name
+ * (katex-classes.ts), and the site's copy of KaTeX's style sheet,
+ * assets/katex/katex.css (siteKatexStylesheet), has every selector renamed
+ * the same way.
  *
  * Only the HTML part changes (it is aria-hidden: screen readers read the
  * MathML, which is left exactly as KaTeX wrote it, with its TeX annotation).
  * test/site/katex-compact.test.ts checks that no style sheet of the site
  * names a dropped class (so a KaTeX upgrade that starts styling one of them
- * fails there) and that site.css has the rule of each style class; the
+ * fails there) and that the site's sheet has the rule of each style class; the
  * browser test lays out every equation of an object page both ways and
  * compares every box.
  */
@@ -28,7 +35,7 @@
 /** Class names KaTeX writes that no rule of katex.min.css (0.19.1) or of site.css selects. */
 export const UNSTYLED_CLASSES: ReadonlySet<string> = new Set(["mord", "mtight", "mbin", "mrel", "mopen", "mclose", "mpunct", "minner", "mop"]);
 
-/** Empty spans whose inline style becomes a class of site.css: span class, the declaration, and the class that sets it. */
+/** Empty spans whose inline style becomes a class: span class, the declaration, and the class that sets it (its rule is in siteKatexStylesheet). */
 export const STYLE_CLASSES: ReadonlyArray<{ readonly on: string; readonly declaration: string; readonly name: string }> = [
   { on: "pstrut", declaration: "height:2.7em", name: "ps27" },
   { on: "pstrut", declaration: "height:3em", name: "ps3" },
@@ -38,11 +45,48 @@ export const STYLE_CLASSES: ReadonlyArray<{ readonly on: string; readonly declar
   { on: "frac-line", declaration: "border-bottom-width:.04em", name: "fl4" },
 ];
 
-const STYLED_EMPTY_SPAN = new RegExp(`<span class="(${[...new Set(STYLE_CLASSES.map((c) => c.on))].join("|")})" style="([^"]*)"></span>`, "g");
-const CLASS_FOR = new Map(STYLE_CLASSES.map((c) => [`${c.on} ${c.declaration}`, `<span class="${c.on} ${c.name}"></span>`]));
+let classMap: Map<string, string> | undefined;
+let originals: Map<string, string> | undefined;
+
+/**
+ * KaTeX's class name → the short name the HTML part is written with
+ * (katex-classes.ts): every class katex.min.css selects but the outer ones,
+ * and the style classes below.
+ */
+export function katexClassMap(): ReadonlyMap<string, string> {
+  classMap ??= classMapFor(katexStylesheet(), STYLE_CLASSES.map((c) => c.name));
+  return classMap;
+}
+
+/** The class a short name stands for; undefined for a name the map does not give. */
+export function originalClassName(short: string): string | undefined {
+  originals ??= new Map([...katexClassMap()].map(([name, s]) => [s, name]));
+  return originals.get(short);
+}
+
+/** The style sheet the site ships for its equations: KaTeX's with the short names, and the rules of the style classes. */
+export function siteKatexStylesheet(): string {
+  const map = katexClassMap();
+  const rules = STYLE_CLASSES.map((c) => `.katex .${map.get(c.on)}.${map.get(c.name)}{${c.declaration}}`).join("");
+  return renameSelectors(katexStylesheet(), map) + rules;
+}
+
+/** The empty spans of STYLE_CLASSES as compaction has left them (short class, short style), and what each becomes. */
+let styledSpans: { pattern: RegExp; replacement: Map<string, string> } | undefined;
+
+function styledEmptySpans(): { pattern: RegExp; replacement: Map<string, string> } {
+  if (styledSpans) return styledSpans;
+  const map = katexClassMap();
+  const on = [...new Set(STYLE_CLASSES.map((c) => map.get(c.on)!))];
+  styledSpans = {
+    pattern: new RegExp(`<span class="(${on.join("|")})" style="([^"]*)"></span>`, "g"),
+    replacement: new Map(STYLE_CLASSES.map((c) => [`${map.get(c.on)} ${c.declaration}`, `<span class="${map.get(c.on)} ${map.get(c.name)}"></span>`])),
+  };
+  return styledSpans;
+}
 
 function classForStyle(span: string, on: string, declaration: string): string {
-  return CLASS_FOR.get(`${on} ${declaration}`) ?? span;
+  return styledEmptySpans().replacement.get(`${on} ${declaration}`) ?? span;
 }
 
 const HTML_PART = '<span class="katex-html"';
@@ -51,10 +95,12 @@ const ATTRIBUTE = / (class|style)="([^"]*)"/g;
 const LEADING_ZERO = /(^|[^\d.])0\.(?=\d)/g;
 
 function compactClasses(value: string): string {
+  const map = katexClassMap();
   let out = "";
   for (const name of value.split(" ")) {
     if (name === "" || UNSTYLED_CLASSES.has(name)) continue;
-    out = out === "" ? name : out + " " + name;
+    const short = map.get(name) ?? name;
+    out = out === "" ? short : out + " " + short;
   }
   return out === "" ? "" : ` class="${out}"`;
 }
@@ -75,5 +121,5 @@ export function compactKatex(rendered: string): string {
   if (at < 0) return rendered;
   // the katex-html span's own class stays: it is styled
   const body = at + HTML_PART.length;
-  return rendered.slice(0, body) + rendered.slice(body).replace(ATTRIBUTE, compactAttribute).replace(STYLED_EMPTY_SPAN, classForStyle);
+  return rendered.slice(0, body) + rendered.slice(body).replace(ATTRIBUTE, compactAttribute).replace(styledEmptySpans().pattern, classForStyle);
 }

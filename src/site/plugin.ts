@@ -12,6 +12,7 @@ import { NUNJUCKS_OPTIONS, writeObjectPages, type ObjectPagesOutcome } from "./o
 import { writeDownloads } from "./download-files.js";
 import type { SiteCache } from "./handoff.js";
 import { pageSite } from "./page-render.js";
+import { siteKatexStylesheet } from "./katex-compact.js";
 import type { PreviousAudit } from "./changes-view.js";
 import { readAuditJson } from "../releases/read-audit-json.js";
 
@@ -68,8 +69,9 @@ function resolveOptions(options: SteelyardPluginOptions): ResolvedOptions {
 /**
  * The steelyard site as one Eleventy plugin: the audit as global data
  * `steelyard`, the downloads as virtual templates, one audit page per object
- * (written after the build), and the stylesheet, table script and KaTeX's
- * stylesheet and fonts as passthrough copies. Pages and layouts live in the
+ * (written after the build), the stylesheet, table script and KaTeX's fonts
+ * as passthrough copies, and KaTeX's stylesheet rewritten for the short class
+ * names of the equations (siteKatexStylesheet). Pages and layouts live in the
  * package's content/ folder.
  */
 export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: SteelyardPluginOptions = {}): void {
@@ -168,7 +170,12 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
   }
 
   eleventyConfig.addPassthroughCopy({ [path.join(CONTENT_DIR, "assets")]: "assets" });
-  eleventyConfig.addPassthroughCopy({ [path.join(KATEX_DIST, "katex.min.css")]: "assets/katex/katex.min.css" });
+  // KaTeX's style sheet with the short class names of the equations' HTML part (katex-classes.ts), beside its fonts
+  eleventyConfig.addTemplate("katex-stylesheet.njk", "{{ stylesheet | safe }}", {
+    permalink: "/assets/katex/katex.css",
+    stylesheet: siteKatexStylesheet(),
+    eleventyExcludeFromCollections: true,
+  });
   eleventyConfig.addPassthroughCopy({ [path.join(KATEX_DIST, "fonts")]: "assets/katex/fonts" });
 }
 

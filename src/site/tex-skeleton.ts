@@ -1,3 +1,5 @@
+import { originalClassName } from "./katex-compact.js";
+
 /**
  * The shape of a TeX string, apart from its numbers.
  *
@@ -178,7 +180,9 @@ function contextProblem(rendered: string, at: number, region: Region): string | 
   // a span without classes is set in the main font, whose digits are all alike
   if (classes[1] === undefined) return undefined;
   for (const name of classes[1].split(" ")) {
-    if (!SWAPPABLE_CLASSES.has(name)) return `a number is set with class ${name}, whose digits are not all alike`;
+    // compaction writes KaTeX's classes by their short names (katex-classes.ts)
+    const original = originalClassName(name) ?? name;
+    if (!SWAPPABLE_CLASSES.has(original)) return `a number is set with class ${original}, whose digits are not all alike`;
   }
   return undefined;
 }

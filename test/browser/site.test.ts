@@ -19,7 +19,8 @@ import { STATUSES } from "../../src/audit/types.js";
 import { serveStatic, type StaticServer } from "../../src/serve/static-server.js";
 import { buildSite, renderSite } from "../../src/site/build.js";
 import type { TableRow } from "../../src/site/table.js";
-import { compactKatex } from "../../src/site/katex-compact.js";
+import { compactKatex, katexClassMap } from "../../src/site/katex-compact.js";
+import { katexStylesheet } from "../../src/site/katex-classes.js";
 import { decodeEntities } from "../site/helpers/html-scan.js";
 import { launchChromium, requireChromium } from "./helpers/chromium.js";
 import { watchedContext } from "./helpers/context-watch.js";
@@ -164,9 +165,9 @@ function pageEquations(html: string): Array<{ tex: string; displayMode: boolean 
   return out;
 }
 
-/** A bare page of equations with the site's style sheets. */
-function equationPage(equations: readonly string[]): string {
-  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><link rel="stylesheet" href="/assets/site.css"><link rel="stylesheet" href="/assets/katex/katex.min.css"></head><body><main>${equations.map((e) => `<div class="equation-box">${e}</div>`).join("")}</main></body></html>`;
+/** A bare page of equations with the site's style sheet and a KaTeX sheet (the site's, or KaTeX's own beside it). */
+function equationPage(equations: readonly string[], katexSheet: string): string {
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><link rel="stylesheet" href="/assets/site.css"><link rel="stylesheet" href="/assets/katex/${katexSheet}"></head><body><main>${equations.map((e) => `<div class="equation-box">${e}</div>`).join("")}</main></body></html>`;
 }
 
 /** Every box under each equation's HTML part, in document order, relative to the page, in CSS pixels. */
@@ -469,7 +470,7 @@ describe("the demo site in Chromium", () => {
     await page.waitForURL(`${subSite.url}objects/${first.object_id}/`);
     await page.evaluate(() => document.fonts.ready.then(() => undefined));
     expect((await page.textContent("h1"))?.trim()).toBe(first.object_name);
-    expect(w.log.loaded).toContain(`${origin}${SUB}assets/katex/katex.min.css`);
+    expect(w.log.loaded).toContain(`${origin}${SUB}assets/katex/katex.css`);
     expect(w.log.loaded.some((u) => u.startsWith(`${origin}${SUB}assets/katex/fonts/`))).toBe(true);
     expect(w.problems()).toEqual([]);
     await w.context.close();
@@ -564,12 +565,15 @@ describe("the demo site in Chromium", () => {
     compact.forEach((c, i) => expect(built.includes(c), equations[i].tex).toBe(true));
     expect(compact.join("").length).toBeLessThan(0.9 * raw.join("").length);
     // a control: one thin space made a medium one (by its class) must show in the boxes
-    const altered = compact.map((c) => c.replace('class="mspace sp3"', 'class="mspace sp4"'));
+    const k = (name: string): string => katexClassMap().get(name)!;
+    const altered = compact.map((c) => c.replace(`class="${k("mspace")} ${k("sp3")}"`, `class="${k("mspace")} ${k("sp4")}"`));
     expect(altered.join("")).not.toBe(compact.join(""));
+    // KaTeX's raw output is laid out with KaTeX's own sheet, put beside the site's copy (whose fonts it shares)
+    writeFileSync(path.join(siteDir, "assets", "katex", "katex.min.css"), katexStylesheet());
     const pages = { raw, compact, altered };
     for (const [name, eqs] of Object.entries(pages)) {
       mkdirSync(path.join(siteDir, "layout-check", name), { recursive: true });
-      writeFileSync(path.join(siteDir, "layout-check", name, "index.html"), equationPage(eqs));
+      writeFileSync(path.join(siteDir, "layout-check", name, "index.html"), equationPage(eqs, name === "raw" ? "katex.min.css" : "katex.css"));
     }
     const w = await watchedContext(browser, { locale: LOCALE, viewport: { width: 1600, height: 900 } });
     const page = await w.context.newPage();

@@ -8,6 +8,7 @@ import { TABLE_COLUMNS } from "../../src/site/table.js";
 import { ALL_CONSTANTS } from "../../src/constants/sets.js";
 import { METHODS } from "../../src/methods/index.js";
 import { headlineOf } from "../../src/site/headline.js";
+import { siteKatexStylesheet } from "../../src/site/katex-compact.js";
 import { readFileSync } from "node:fs";
 import { validateXML } from "xmllint-wasm";
 import { referenceTableVOTable } from "../../src/export/votable.js";
@@ -131,10 +132,13 @@ describe("site built from the fixture records", () => {
       expect(html).not.toContain("katex-error");
     }
     const files = listFiles(out);
-    expect(files).toContain("assets/katex/katex.min.css");
+    // KaTeX's sheet with the equations' short class names (katex-classes.ts), not KaTeX's own file
+    expect(files).toContain("assets/katex/katex.css");
+    expect(files).not.toContain("assets/katex/katex.min.css");
     const fonts = files.filter((f) => f.startsWith("assets/katex/fonts/"));
     // every font the stylesheet names is there
-    const css = readText(out, "assets/katex/katex.min.css");
+    const css = readText(out, "assets/katex/katex.css");
+    expect(css).toBe(siteKatexStylesheet());
     const named = [...css.matchAll(/url\((fonts\/[^)]+)\)/g)].map((m) => `assets/katex/${m[1]}`);
     expect(named.length).toBeGreaterThan(10);
     for (const f of named) expect(fonts).toContain(f);

@@ -2,27 +2,15 @@ import katex from "katex";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { compactKatex, STYLE_CLASSES, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
+import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet, STYLE_CLASSES, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
 import { METHODS } from "../../src/methods/index.js";
 import { templateOf, texSkeleton } from "../../src/site/tex-skeleton.js";
+import { classesIn } from "./helpers/css-classes.js";
 import { startTags } from "./helpers/html-scan.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
 const STYLE_SHEETS = [path.join(ROOT, "node_modules/katex/dist/katex.min.css"), path.join(ROOT, "content/assets/site.css")];
-
-/** Every class name a style sheet's selectors mention (comments and strings taken out first). */
-function classesIn(css: string): Set<string> {
-  const bare = css.replace(/\/\*[^]*?\*\//g, "").replace(/"[^"]*"|'[^']*'/g, '""');
-  const out = new Set<string>();
-  // selectors are the text before each "{"; declarations are skipped
-  for (const part of bare.split("}")) {
-    const selector = part.split("{")[0];
-    if (selector.trim().startsWith("@")) continue;
-    for (const m of selector.matchAll(/\.(-?[A-Za-z_][\w-]*)/g)) out.add(m[1]);
-  }
-  return out;
-}
 
 /** Equations of every kind the site typesets: each method's general forms and some substituted shapes. */
 function sampleTex(): Array<{ tex: string; display: boolean }> {
@@ -55,7 +43,12 @@ function tagParts(tag: string): { name: string; classes: string[]; style: Record
   const start = startTags(tag)[0];
   // an end tag has no attributes and is compared whole
   const name = start?.name ?? tag;
-  let classes = (start?.attributes.get("class") ?? "").split(" ").filter((c) => c !== "").sort();
+  // short names back to KaTeX's (KaTeX's own names are lower case, short names are not)
+  let classes = (start?.attributes.get("class") ?? "")
+    .split(" ")
+    .filter((c) => c !== "")
+    .map((c) => originalClassName(c) ?? c)
+    .sort();
   const declarations = (start?.attributes.get("style") ?? "").split(";");
   for (const c of STYLE_CLASSES) {
     if (classes.includes(c.name)) {
@@ -84,15 +77,19 @@ describe("compacting KaTeX's output", () => {
     for (const file of STYLE_SHEETS) expect(readFileSync(file, "utf8")).not.toMatch(/\[class/);
   });
 
-  it("gives each repeated inline style a class whose one rule in site.css sets that declaration, a name KaTeX does not use", () => {
-    const site = readFileSync(STYLE_SHEETS[1], "utf8").replace(/\/\*[^]*?\*\//g, "");
+  it("gives each repeated inline style a class whose one rule in the site's KaTeX sheet sets that declaration, a name KaTeX does not use", () => {
+    const sheet = siteKatexStylesheet();
+    const map = katexClassMap();
     const katexClasses = classesIn(readFileSync(STYLE_SHEETS[0], "utf8"));
+    const site = classesIn(readFileSync(STYLE_SHEETS[1], "utf8"));
     for (const c of STYLE_CLASSES) {
       expect(katexClasses.has(c.name), c.name).toBe(false);
-      const rules = [...site.matchAll(/([^{}]+)\{([^}]*)\}/g)].filter((m) => classesIn(`${m[1]}{}`).has(c.name));
+      expect(site.has(c.name), c.name).toBe(false);
+      const short = map.get(c.name)!;
+      const rules = [...sheet.matchAll(/([^{}]+)\{([^}]*)\}/g)].filter((m) => classesIn(`${m[1]}{}`).has(short));
       expect(rules.length, c.name).toBe(1);
-      expect(rules[0][1].trim()).toBe(`.katex .${c.on}.${c.name}`);
-      expect(rules[0][2].replace(/\s/g, "").replace(/;$/, "")).toBe(c.declaration);
+      expect(rules[0][1].trim()).toBe(`.katex .${map.get(c.on)}.${short}`);
+      expect(rules[0][2]).toBe(c.declaration);
     }
   });
 
@@ -135,11 +132,14 @@ describe("compacting KaTeX's output", () => {
   });
 
   it("writes styles the short way without touching numbers that do not start with 0", () => {
+    const k = (name: string): string => katexClassMap().get(name)!;
     const html = '<span class="katex-html"><span class="mord mathrm" style="height:0.6444em;vertical-align:-0.0833em;margin-right:10.05em;"></span><span class="mrel">0.5</span></span>';
-    expect(compactKatex(html)).toBe('<span class="katex-html"><span class="mathrm" style="height:.6444em;vertical-align:-.0833em;margin-right:10.05em"></span><span>0.5</span></span>');
+    expect(compactKatex(html)).toBe(`<span class="katex-html"><span class="${k("mathrm")}" style="height:.6444em;vertical-align:-.0833em;margin-right:10.05em"></span><span>0.5</span></span>`);
     // a thin space and a strut by class; a space of another width keeps its style
     const spaces = '<span class="katex-html"><span class="mspace" style="margin-right:0.1667em;"></span><span class="pstrut" style="height:3em;"></span><span class="mspace" style="margin-right:0.5em;"></span></span>';
-    expect(compactKatex(spaces)).toBe('<span class="katex-html"><span class="mspace sp3"></span><span class="pstrut ps3"></span><span class="mspace" style="margin-right:.5em"></span></span>');
+    expect(compactKatex(spaces)).toBe(
+      `<span class="katex-html"><span class="${k("mspace")} ${k("sp3")}"></span><span class="${k("pstrut")} ${k("ps3")}"></span><span class="${k("mspace")}" style="margin-right:.5em"></span></span>`,
+    );
     // no HTML part: nothing to do
     expect(compactKatex('<math><mi class="mord">x</mi></math>')).toBe('<math><mi class="mord">x</mi></math>');
   });
