@@ -566,7 +566,7 @@ describe("the demo site in Chromium", () => {
     expect(compact.join("").length).toBeLessThan(0.9 * raw.join("").length);
     // a control: one thin space made a medium one (by its class) must show in the boxes
     const k = (name: string): string => katexClassMap().get(name)!;
-    const altered = compact.map((c) => c.replace(`class="${k("mspace")} ${k("sp3")}"`, `class="${k("mspace")} ${k("sp4")}"`));
+    const altered = compact.map((c) => c.replace(`class="${k("mspace")} ${k("margin-right:.1667em")}"`, `class="${k("mspace")} ${k("margin-right:.2222em")}"`));
     expect(altered.join("")).not.toBe(compact.join(""));
     // KaTeX's raw output is laid out with KaTeX's own sheet, put beside the site's copy (whose fonts it shares)
     writeFileSync(path.join(siteDir, "assets", "katex", "katex.min.css"), katexStylesheet());

@@ -2,8 +2,8 @@ import katex from "katex";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { cssPieces, katexStylesheet, OUTER_CLASSES, renameSelectors, selectorClasses, shortName } from "../../src/site/katex-classes.js";
-import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet, STYLE_CLASSES } from "../../src/site/katex-compact.js";
+import { cssPieces, DECLARATIONS, katexStylesheet, OUTER_CLASSES, renameSelectors, selectorClasses, shortName } from "../../src/site/katex-classes.js";
+import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet } from "../../src/site/katex-compact.js";
 import { METHODS } from "../../src/methods/index.js";
 import { classesIn } from "./helpers/css-classes.js";
 import { startTags } from "./helpers/html-scan.js";
@@ -33,13 +33,13 @@ describe("short class names", () => {
     expect(() => shortName(962)).toThrow("no short name");
   });
 
-  it("maps every class of KaTeX's sheet but the outer ones, one to one, and the style classes too", () => {
+  it("maps every class of KaTeX's sheet but the outer ones, one to one, and the declarations of the table too", () => {
     const map = katexClassMap();
     const sheet = selectorClasses(katexStylesheet());
     // a control: the parser finds KaTeX's real classes
     for (const c of ["katex", "vlist-t", "mfrac", "katex-sizing", "reset-size6", "mspace"]) expect(sheet, c).toContain(c);
     for (const c of sheet) expect(map.has(c), c).toBe(!OUTER_CLASSES.has(c));
-    for (const c of STYLE_CLASSES) expect(map.has(c.name), c.name).toBe(true);
+    for (const d of DECLARATIONS) expect(map.has(d), d).toBe(true);
     const shorts = [...map.values()];
     expect(new Set(shorts).size).toBe(shorts.length);
     for (const [name, short] of map) expect(originalClassName(short)).toBe(name);
@@ -109,8 +109,8 @@ describe("the site's copy of KaTeX's style sheet", () => {
     expect(renameSelectors(renameSelectors(css, map), back)).toBe(css);
     // a rule that KaTeX writes with several classes, renamed class by class
     expect(site).toContain(`.katex .${map.get("katex-sizing")}.${map.get("reset-size6")}.${map.get("size3")}{`);
-    // the site's sheet is KaTeX's renamed, then the style classes' rules
+    // the site's sheet is KaTeX's renamed, then the declaration classes' rules
     expect(site.startsWith(renameSelectors(css, map))).toBe(true);
-    expect(cssPieces(site).filter((p) => p.block !== "").length).toBe(before.filter((p) => p.block !== "").length + STYLE_CLASSES.length);
+    expect(cssPieces(site).filter((p) => p.block !== "").length).toBe(before.filter((p) => p.block !== "").length + DECLARATIONS.length);
   });
 });

@@ -2,7 +2,8 @@ import katex from "katex";
 import { readFileSync } from "node:fs";
 import path from "node:path";
 import { describe, expect, it } from "vitest";
-import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet, STYLE_CLASSES, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
+import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
+import { DECLARATIONS } from "../../src/site/katex-classes.js";
 import { METHODS } from "../../src/methods/index.js";
 import { templateOf, texSkeleton } from "../../src/site/tex-skeleton.js";
 import { classesIn } from "./helpers/css-classes.js";
@@ -44,19 +45,13 @@ function tagParts(tag: string): { name: string; classes: string[]; style: Record
   // an end tag has no attributes and is compared whole
   const name = start?.name ?? tag;
   // short names back to KaTeX's (KaTeX's own names are lower case, short names are not)
-  let classes = (start?.attributes.get("class") ?? "")
+  const originals = (start?.attributes.get("class") ?? "")
     .split(" ")
     .filter((c) => c !== "")
-    .map((c) => originalClassName(c) ?? c)
-    .sort();
-  const declarations = (start?.attributes.get("style") ?? "").split(";");
-  for (const c of STYLE_CLASSES) {
-    if (classes.includes(c.name)) {
-      expect(classes).toContain(c.on);
-      declarations.push(c.declaration);
-      classes = classes.filter((n) => n !== c.name);
-    }
-  }
+    .map((c) => originalClassName(c) ?? c);
+  // a declaration class counts as its declaration
+  const classes = originals.filter((c) => !c.includes(":")).sort();
+  const declarations = [...(start?.attributes.get("style") ?? "").split(";"), ...originals.filter((c) => c.includes(":"))];
   const style: Record<string, string> = {};
   for (const decl of declarations) {
     if (decl === "") continue;
@@ -77,20 +72,29 @@ describe("compacting KaTeX's output", () => {
     for (const file of STYLE_SHEETS) expect(readFileSync(file, "utf8")).not.toMatch(/\[class/);
   });
 
-  it("gives each repeated inline style a class whose one rule in the site's KaTeX sheet sets that declaration, a name KaTeX does not use", () => {
+  it("gives each repeated inline declaration a class whose one rule in the site's KaTeX sheet sets it as !important, and no other !important rule sets its property", () => {
     const sheet = siteKatexStylesheet();
     const map = katexClassMap();
-    const katexClasses = classesIn(readFileSync(STYLE_SHEETS[0], "utf8"));
-    const site = classesIn(readFileSync(STYLE_SHEETS[1], "utf8"));
-    for (const c of STYLE_CLASSES) {
-      expect(katexClasses.has(c.name), c.name).toBe(false);
-      expect(site.has(c.name), c.name).toBe(false);
-      const short = map.get(c.name)!;
-      const rules = [...sheet.matchAll(/([^{}]+)\{([^}]*)\}/g)].filter((m) => classesIn(`${m[1]}{}`).has(short));
-      expect(rules.length, c.name).toBe(1);
-      expect(rules[0][1].trim()).toBe(`.katex .${map.get(c.on)}.${short}`);
-      expect(rules[0][2]).toBe(c.declaration);
+    expect(new Set(DECLARATIONS).size).toBe(DECLARATIONS.length);
+    const rules = [...sheet.matchAll(/([^{}]+)\{([^}]*)\}/g)];
+    for (const d of DECLARATIONS) {
+      // written as compaction writes them: a property, a number without a leading 0 and em
+      expect(d).toMatch(/^[a-z-]+:-?(?:0|[1-9]\d*|(?:[1-9]\d*)?\.\d+)em$/);
+      const short = map.get(d)!;
+      const mine = rules.filter((m) => classesIn(`${m[1]}{}`).has(short));
+      expect(mine.length, d).toBe(1);
+      expect(mine[0][1].trim()).toBe(`.katex .${short}`);
+      expect(mine[0][2]).toBe(`${d}!important`);
     }
+    // the only other !important declarations of KaTeX's sheet and of site.css set none of these properties
+    const properties = new Set(DECLARATIONS.map((d) => d.split(":")[0]));
+    const important: string[] = [];
+    for (const file of STYLE_SHEETS) {
+      for (const m of readFileSync(file, "utf8").matchAll(/([\w-]+)\s*:[^;{}]*!\s*important/g)) important.push(m[1]);
+    }
+    // a control: KaTeX's sheet has one
+    expect(important).toContain("-ms-high-contrast-adjust");
+    expect(important.filter((p) => properties.has(p))).toEqual([]);
   });
 
   it("drops names that KaTeX does write", () => {
@@ -134,11 +138,18 @@ describe("compacting KaTeX's output", () => {
   it("writes styles the short way without touching numbers that do not start with 0", () => {
     const k = (name: string): string => katexClassMap().get(name)!;
     const html = '<span class="katex-html"><span class="mord mathrm" style="height:0.6444em;vertical-align:-0.0833em;margin-right:10.05em;"></span><span class="mrel">0.5</span></span>';
-    expect(compactKatex(html)).toBe(`<span class="katex-html"><span class="${k("mathrm")}" style="height:.6444em;vertical-align:-.0833em;margin-right:10.05em"></span><span>0.5</span></span>`);
+    // a declaration of the table goes into the classes; the others stay, in their order
+    expect(compactKatex(html)).toBe(
+      `<span class="katex-html"><span class="${k("mathrm")} ${k("vertical-align:-.0833em")}" style="height:.6444em;margin-right:10.05em"></span><span>0.5</span></span>`,
+    );
     // a thin space and a strut by class; a space of another width keeps its style
     const spaces = '<span class="katex-html"><span class="mspace" style="margin-right:0.1667em;"></span><span class="pstrut" style="height:3em;"></span><span class="mspace" style="margin-right:0.5em;"></span></span>';
     expect(compactKatex(spaces)).toBe(
-      `<span class="katex-html"><span class="${k("mspace")} ${k("sp3")}"></span><span class="${k("pstrut")} ${k("ps3")}"></span><span class="${k("mspace")}" style="margin-right:.5em"></span></span>`,
+      `<span class="katex-html"><span class="${k("mspace")} ${k("margin-right:.1667em")}"></span><span class="${k("pstrut")} ${k("height:3em")}"></span><span class="${k("mspace")}" style="margin-right:.5em"></span></span>`,
+    );
+    // a span with a style and no class
+    expect(compactKatex('<span class="katex-html"><span style="top:-2.55em;margin-right:0.05em;">x</span></span>')).toBe(
+      `<span class="katex-html"><span class="${k("top:-2.55em")} ${k("margin-right:.05em")}">x</span></span>`,
     );
     // no HTML part: nothing to do
     expect(compactKatex('<math><mi class="mord">x</mi></math>')).toBe('<math><mi class="mord">x</mi></math>');
