@@ -10,7 +10,7 @@ import { KATEX_DIST } from "./paths.js";
  * reset-size6 size3" on every script). Inside the HTML part of an equation
  * each class KaTeX's style sheet selects is written as a name of one or two
  * characters, and the site ships KaTeX's style sheet with every selector
- * rewritten by the same map (assets/katex/katex.css, made from
+ * rewritten by the same map (assets/katex/katex-<digest>.css, made from
  * katex.min.css at build time). A rule then matches a renamed element
  * exactly when it matched the original one: the map is one to one, every
  * class of every selector goes through it, and no selector of KaTeX's reads

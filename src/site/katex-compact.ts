@@ -1,3 +1,4 @@
+import { digest } from "../cache/digest.js";
 import { classMapFor, DECLARATIONS, katexStylesheet, renameSelectors } from "./katex-classes.js";
 
 /**
@@ -13,7 +14,7 @@ import { classMapFor, DECLARATIONS, katexStylesheet, renameSelectors } from "./k
  *
  * Every remaining class of the HTML part is then written with its short name
  * (katex-classes.ts), and the site's copy of KaTeX's style sheet,
- * assets/katex/katex.css (siteKatexStylesheet), has every selector renamed
+ * assets/katex/katex-<digest>.css (siteKatexStylesheet), has every selector renamed
  * the same way.
  *
  * Last, the inline declarations KaTeX writes most often (DECLARATIONS: the
@@ -62,6 +63,18 @@ export function siteKatexStylesheet(): string {
   const map = katexClassMap();
   const rules = DECLARATIONS.map((d) => `.katex .${map.get(d)}{${d}!important}`).join("");
   return renameSelectors(katexStylesheet(), map) + rules;
+}
+
+let sheetPath: string | undefined;
+
+/**
+ * The site path of siteKatexStylesheet: its name holds a digest of its
+ * content, so a browser that kept the sheet of an earlier build (another
+ * KaTeX, another map) never lays out a page with it.
+ */
+export function katexStylesheetPath(): string {
+  sheetPath ??= `assets/katex/katex-${digest([siteKatexStylesheet()]).slice(0, 12)}.css`;
+  return sheetPath;
 }
 
 const HTML_PART = '<span class="katex-html"';

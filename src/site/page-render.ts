@@ -7,6 +7,7 @@ import { objectPageView, type DisplayTex, type MethodLookup } from "./object-vie
 import { compiledTemplateLoader } from "./compiled-templates.js";
 import { homeRowRendererIn, type HomeRowRenderer } from "./home-rows.js";
 import { PageBytes } from "./page-bytes.js";
+import { katexStylesheetPath } from "./katex-compact.js";
 
 /**
  * Renders one object's audit page: object-page.njk inside base.njk, through
@@ -64,6 +65,7 @@ export function createPageRenderer(includesDir: string, site: PageSite, assemble
   const settings = site.settings;
   const base = site.basePath;
   const deferred: DisplayTex = (tex, repeats) => assembler.displayEquation(tex, repeats);
+  const katexStylesheet = katexStylesheetPath();
   const render = ({ obj, problems }: PageInput, displayTex?: DisplayTex): string => {
     const steelyard = {
       basePath: base,
@@ -72,6 +74,7 @@ export function createPageRenderer(includesDir: string, site: PageSite, assemble
       ...(site.hasChanges ? { changes: true } : {}),
       objectPage: (o: ObjectAudit) => objectPageView(o, lookup, problems, displayTex),
       link: (sitePath: string) => underBase(base, String(sitePath)),
+      katexStylesheet,
     };
     const vars = { steelyard, obj, katex: true, pageKind: "object" };
     const content = body.render(vars);

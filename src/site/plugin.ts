@@ -12,7 +12,7 @@ import { NUNJUCKS_OPTIONS, writeObjectPages, type ObjectPagesOutcome } from "./o
 import { writeDownloads } from "./download-files.js";
 import type { SiteCache } from "./handoff.js";
 import { pageSite } from "./page-render.js";
-import { siteKatexStylesheet } from "./katex-compact.js";
+import { katexStylesheetPath, siteKatexStylesheet } from "./katex-compact.js";
 import type { PreviousAudit } from "./changes-view.js";
 import { readAuditJson } from "../releases/read-audit-json.js";
 
@@ -172,7 +172,7 @@ export function steelyardPlugin(eleventyConfig: EleventyConfigApi, options: Stee
   eleventyConfig.addPassthroughCopy({ [path.join(CONTENT_DIR, "assets")]: "assets" });
   // KaTeX's style sheet with the short class names of the equations' HTML part (katex-classes.ts), beside its fonts
   eleventyConfig.addTemplate("katex-stylesheet.njk", "{{ stylesheet | safe }}", {
-    permalink: "/assets/katex/katex.css",
+    permalink: `/${katexStylesheetPath()}`,
     stylesheet: siteKatexStylesheet(),
     eleventyExcludeFromCollections: true,
   });

@@ -7,6 +7,7 @@ import { underBase } from "./base-path.js";
 import { homeRowHtmlOf, type HomeRowRenderer } from "./home-rows.js";
 import { createPageRenderer, pageSite } from "./page-render.js";
 import { CONTENT_DIR } from "./paths.js";
+import { katexStylesheetPath } from "./katex-compact.js";
 import { constantsView, type ConstantView } from "./constants-view.js";
 import { DOWNLOADS } from "./downloads.js";
 import { fragmentsOf } from "./fragments.js";
@@ -43,6 +44,8 @@ export interface SiteData {
   problemsOf(file: string): readonly Problem[];
   /** A site path under the base path: {{ steelyard.link("objects/x/") }}. */
   link(sitePath: string): string;
+  /** The site path of the equations' style sheet (katexStylesheetPath). */
+  readonly katexStylesheet: string;
 }
 
 export interface SiteInputs {
@@ -110,6 +113,7 @@ export function buildSiteData(input: SiteInputs): SiteData {
     objectPage: (obj: ObjectAudit) => objectPageView(obj, lookup, byFile.get(obj.file) ?? []),
     problemsOf: (file: string) => byFile.get(file) ?? [],
     link: (sitePath: string) => underBase(input.basePath, String(sitePath)),
+    katexStylesheet: katexStylesheetPath(),
     ...(input.previous ? { changes: changesView(report, input.previous) } : {}),
   });
 }

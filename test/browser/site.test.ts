@@ -19,7 +19,7 @@ import { STATUSES } from "../../src/audit/types.js";
 import { serveStatic, type StaticServer } from "../../src/serve/static-server.js";
 import { buildSite, renderSite } from "../../src/site/build.js";
 import type { TableRow } from "../../src/site/table.js";
-import { compactKatex, katexClassMap } from "../../src/site/katex-compact.js";
+import { compactKatex, katexClassMap, katexStylesheetPath } from "../../src/site/katex-compact.js";
 import { katexStylesheet } from "../../src/site/katex-classes.js";
 import { decodeEntities } from "../site/helpers/html-scan.js";
 import { launchChromium, requireChromium } from "./helpers/chromium.js";
@@ -165,9 +165,9 @@ function pageEquations(html: string): Array<{ tex: string; displayMode: boolean 
   return out;
 }
 
-/** A bare page of equations with the site's style sheet and a KaTeX sheet (the site's, or KaTeX's own beside it). */
+/** A bare page of equations with the site's style sheet and a KaTeX sheet (the site's, or KaTeX's own beside it), by site path. */
 function equationPage(equations: readonly string[], katexSheet: string): string {
-  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><link rel="stylesheet" href="/assets/site.css"><link rel="stylesheet" href="/assets/katex/${katexSheet}"></head><body><main>${equations.map((e) => `<div class="equation-box">${e}</div>`).join("")}</main></body></html>`;
+  return `<!doctype html><html lang="en"><head><meta charset="utf-8"><link rel="stylesheet" href="/assets/site.css"><link rel="stylesheet" href="/${katexSheet}"></head><body><main>${equations.map((e) => `<div class="equation-box">${e}</div>`).join("")}</main></body></html>`;
 }
 
 /** Every box under each equation's HTML part, in document order, relative to the page, in CSS pixels. */
@@ -470,7 +470,7 @@ describe("the demo site in Chromium", () => {
     await page.waitForURL(`${subSite.url}objects/${first.object_id}/`);
     await page.evaluate(() => document.fonts.ready.then(() => undefined));
     expect((await page.textContent("h1"))?.trim()).toBe(first.object_name);
-    expect(w.log.loaded).toContain(`${origin}${SUB}assets/katex/katex.css`);
+    expect(w.log.loaded).toContain(`${origin}${SUB}${katexStylesheetPath()}`);
     expect(w.log.loaded.some((u) => u.startsWith(`${origin}${SUB}assets/katex/fonts/`))).toBe(true);
     expect(w.problems()).toEqual([]);
     await w.context.close();
@@ -573,7 +573,7 @@ describe("the demo site in Chromium", () => {
     const pages = { raw, compact, altered };
     for (const [name, eqs] of Object.entries(pages)) {
       mkdirSync(path.join(siteDir, "layout-check", name), { recursive: true });
-      writeFileSync(path.join(siteDir, "layout-check", name, "index.html"), equationPage(eqs, name === "raw" ? "katex.min.css" : "katex.css"));
+      writeFileSync(path.join(siteDir, "layout-check", name, "index.html"), equationPage(eqs, name === "raw" ? "assets/katex/katex.min.css" : katexStylesheetPath()));
     }
     const w = await watchedContext(browser, { locale: LOCALE, viewport: { width: 1600, height: 900 } });
     const page = await w.context.newPage();

@@ -8,7 +8,8 @@ import { TABLE_COLUMNS } from "../../src/site/table.js";
 import { ALL_CONSTANTS } from "../../src/constants/sets.js";
 import { METHODS } from "../../src/methods/index.js";
 import { headlineOf } from "../../src/site/headline.js";
-import { siteKatexStylesheet } from "../../src/site/katex-compact.js";
+import { katexStylesheetPath, siteKatexStylesheet } from "../../src/site/katex-compact.js";
+import { digest } from "../../src/cache/digest.js";
 import { readFileSync } from "node:fs";
 import { validateXML } from "xmllint-wasm";
 import { referenceTableVOTable } from "../../src/export/votable.js";
@@ -133,12 +134,16 @@ describe("site built from the fixture records", () => {
     }
     const files = listFiles(out);
     // KaTeX's sheet with the equations' short class names (katex-classes.ts), not KaTeX's own file
-    expect(files).toContain("assets/katex/katex.css");
-    expect(files).not.toContain("assets/katex/katex.min.css");
+    // under a name that holds a digest of its content, so a browser never pairs a page with an older map
+    const sheet = katexStylesheetPath();
+    expect(sheet).toMatch(/^assets\/katex\/katex-[0-9a-f]{12}\.css$/);
+    expect(files.filter((f) => f.startsWith("assets/katex/") && f.endsWith(".css"))).toEqual([sheet]);
+    for (const o of report.objects) expect(page(o.id)).toContain(`<link rel="stylesheet" href="/${sheet}">`);
     const fonts = files.filter((f) => f.startsWith("assets/katex/fonts/"));
     // every font the stylesheet names is there
-    const css = readText(out, "assets/katex/katex.css");
+    const css = readText(out, sheet);
     expect(css).toBe(siteKatexStylesheet());
+    expect(sheet).toContain(digest([css]).slice(0, 12));
     const named = [...css.matchAll(/url\((fonts\/[^)]+)\)/g)].map((m) => `assets/katex/${m[1]}`);
     expect(named.length).toBeGreaterThan(10);
     for (const f of named) expect(fonts).toContain(f);
