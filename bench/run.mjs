@@ -295,7 +295,6 @@ async function runSize(n, options, probe, cached, log) {
   log(`  generated ${n} records (${catalogue.measurements} measurements, ${(catalogue.bytes / 1024).toFixed(0)} KB) in ${((performance.now() - t0) / 1000).toFixed(1)} s: ${records}`);
   if (options.steps.includes("baseline")) prepareBaselineInput(baselineIn, n);
 
-  const steps = {};
   let counter = 0;
   const once = async (step, prepare) => {
     if (prepare) prepare();
@@ -320,27 +319,32 @@ async function runSize(n, options, probe, cached, log) {
     return { ...r, code_version: codeBefore === codeAfter ? codeBefore : `${codeBefore}→${codeAfter}` };
   };
 
+  // Rounds: run k of every step, in the order of the steps, then run k + 1. The machine's speed
+  // drifts over minutes; in rounds each step's runs spread over the same minutes as the
+  // baseline's, so the ratios compare runs made under the same conditions.
   let siteBytes;
-  for (const step of options.steps) {
-    const runs = [];
+  const runsOf = Object.fromEntries(options.steps.map((step) => [step, []]));
+  for (const { step, run: k } of roundOrder(options.steps, options.runs)) {
     // a rebuild needs a site in place: build one, unmeasured, when no full build ran before
     if ((step === "rebuild-edit" || step === "rebuild-same") && !existsSync(path.join(site, "index.html"))) {
       log(`  (building once, unmeasured, so that ${step} has a site to rebuild)`);
       await once("build", clearSite);
     }
-    for (let k = 0; k < options.runs; k++) {
-      let before;
-      let edit;
-      // a full build starts from nothing: no site and no cache
-      if (step === "build") before = clearSite;
-      if (step === "baseline") before = () => rmSync(baselineOut, { recursive: true, force: true });
-      if (step === "rebuild-edit") before = () => { edit = editOnePublishedValue(records, 1); };
-      const r = await once(step, before);
-      runs.push({ seconds: r.seconds, peak_kb: r.peakKB ?? null, exit_code: r.code, code_version: r.code_version, ...(edit ? { edited: path.relative(records, edit.file) } : {}) });
-      log(`  ${step.padEnd(12)} run ${k + 1}/${options.runs}: ${r.seconds.toFixed(2)} s, ${r.peakKB ? (r.peakKB / 1024).toFixed(0) + " MB" : "memory unknown"}`);
-    }
-    // the site of the last full build, before a rebuild step changes it
-    if (step === "build") siteBytes = siteSize(site);
+    let before;
+    let edit;
+    // a full build starts from nothing: no site and no cache
+    if (step === "build") before = clearSite;
+    if (step === "baseline") before = () => rmSync(baselineOut, { recursive: true, force: true });
+    if (step === "rebuild-edit") before = () => { edit = editOnePublishedValue(records, 1); };
+    const r = await once(step, before);
+    runsOf[step].push({ seconds: r.seconds, peak_kb: r.peakKB ?? null, exit_code: r.code, code_version: r.code_version, ...(edit ? { edited: path.relative(records, edit.file) } : {}) });
+    log(`  ${step.padEnd(12)} run ${k + 1}/${options.runs}: ${r.seconds.toFixed(2)} s, ${r.peakKB ? (r.peakKB / 1024).toFixed(0) + " MB" : "memory unknown"}`);
+    // the site of the first full build, before a rebuild step changes it (later ones differ only in the edited values)
+    if (step === "build" && siteBytes === undefined) siteBytes = siteSize(site);
+  }
+  const steps = {};
+  for (const step of options.steps) {
+    const runs = runsOf[step];
     const versions = new Set(runs.map((r) => r.code_version));
     if (versions.size > 1) log(`  warning: the ${step} runs ran ${versions.size} versions of the code (${[...versions].join(", ")}); their spread is not noise alone`);
     const secs = runs.map((r) => r.seconds);
@@ -359,6 +363,13 @@ async function runSize(n, options, probe, cached, log) {
   if (!options.keep) rmSync(work, { recursive: true, force: true });
   else log(`  kept: ${work}`);
   return { objects: n, measurements: catalogue.measurements, record_bytes: catalogue.bytes, scenarios: catalogue.scenarios, intended: catalogue.intended, steps, ...(siteBytes ? { site: siteBytes } : {}), ...(options.keep ? { work_dir: work } : {}) };
+}
+
+/** The order of the measured runs: run 0 of every step in the order given, then run 1, and so on. */
+export function roundOrder(steps, runs) {
+  const out = [];
+  for (let run = 0; run < runs; run++) for (const step of steps) out.push({ step, run });
+  return out;
 }
 
 // ---------------------------------------------------------------------------

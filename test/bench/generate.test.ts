@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { FILES_PER_FOLDER, generateCatalogue, objectRecord } from "../../bench/generate.mjs";
 import { editOnePublishedValue } from "../../bench/edit-record.mjs";
 import { mergeSummaries, moduleOf, summariseProfile } from "../../bench/profile.mjs";
-import { formatTable, linearFit, median, parseOptions, siteSize } from "../../bench/run.mjs";
+import { formatTable, linearFit, median, parseOptions, roundOrder, siteSize } from "../../bench/run.mjs";
 import { pathToFileURL } from "node:url";
 import { auditRecords } from "../../src/audit/audit-records.js";
 import type { AuditReport } from "../../src/audit/types.js";
@@ -241,6 +241,12 @@ describe("benchmark statistics and options", () => {
     const bad = parseOptions(["--objects", "0", "--runs", "x", "--steps", "draw"]);
     expect(bad.ok).toBe(false);
     if (!bad.ok) expect(bad.problems.length).toBe(3);
+  });
+
+  it("runs the steps in rounds: the first run of every step, in their order, then the second", () => {
+    const order = roundOrder(["check", "build", "baseline"], 2).map(({ step, run }) => `${step}${run}`);
+    expect(order).toEqual(["check0", "build0", "baseline0", "check1", "build1", "baseline1"]);
+    expect(roundOrder(["build"], 0)).toEqual([]);
   });
 });
 
