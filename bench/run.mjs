@@ -8,7 +8,7 @@
 // belong to that step alone. Results go to bench/results/ as JSON (git-ignored).
 import { spawn, spawnSync } from "node:child_process";
 import { createHash } from "node:crypto";
-import { existsSync, lstatSync, mkdirSync, mkdtempSync, openSync, closeSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, lstatSync, mkdirSync, mkdtempSync, openSync, closeSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from "node:fs";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
@@ -285,9 +285,18 @@ async function runSize(n, options, probe, cached, log) {
   const cache = cached ? path.join(work, "cache") : undefined;
   mkdirSync(logs);
   const paths = { records, site, cache, baselineIn, baselineOut, draws: options.draws };
+  // Outputs a step needs gone are moved aside, never deleted while runs are measured: on a disk
+  // mounted with online discard (this machine's ext4), deleting ten thousand files slows the
+  // runs after it, more with every deletion (bench/README.md). The work folder goes at the end.
+  const trash = path.join(work, "set-aside");
+  mkdirSync(trash);
+  let setAside = 0;
+  const moveAside = (dir) => {
+    if (existsSync(dir)) renameSync(dir, path.join(trash, `${path.basename(dir)}-${++setAside}`));
+  };
   const clearSite = () => {
-    rmSync(site, { recursive: true, force: true });
-    if (cache) rmSync(cache, { recursive: true, force: true });
+    moveAside(site);
+    if (cache) moveAside(cache);
   };
 
   const t0 = performance.now();
@@ -334,7 +343,7 @@ async function runSize(n, options, probe, cached, log) {
     let edit;
     // a full build starts from nothing: no site and no cache
     if (step === "build") before = clearSite;
-    if (step === "baseline") before = () => rmSync(baselineOut, { recursive: true, force: true });
+    if (step === "baseline") before = () => moveAside(baselineOut);
     if (step === "rebuild-edit") before = () => { edit = editOnePublishedValue(records, 1); };
     const r = await once(step, before);
     runsOf[step].push({ seconds: r.seconds, peak_kb: r.peakKB ?? null, exit_code: r.code, code_version: r.code_version, ...(edit ? { edited: path.relative(records, edit.file) } : {}) });
@@ -360,9 +369,8 @@ async function runSize(n, options, probe, cached, log) {
     };
   }
 
-  if (!options.keep) rmSync(work, { recursive: true, force: true });
-  else log(`  kept: ${work}`);
-  return { objects: n, measurements: catalogue.measurements, record_bytes: catalogue.bytes, scenarios: catalogue.scenarios, intended: catalogue.intended, steps, ...(siteBytes ? { site: siteBytes } : {}), ...(options.keep ? { work_dir: work } : {}) };
+  if (options.keep) log(`  kept: ${work}`);
+  return { work, objects: n, measurements: catalogue.measurements, record_bytes: catalogue.bytes, scenarios: catalogue.scenarios, intended: catalogue.intended, steps, ...(siteBytes ? { site: siteBytes } : {}), ...(options.keep ? { work_dir: work } : {}) };
 }
 
 /** The order of the measured runs: run 0 of every step in the order given, then run 1, and so on. */
@@ -491,10 +499,15 @@ async function main(argv) {
   const codeAtStart = codeFingerprint();
   log(`steelyard benchmark: sizes ${options.objects.join(", ")}; ${options.runs} run(s) per step; steps ${options.steps.join(", ")}; memory from ${probe}; ${cached ? "build cache per size, emptied before each full build" : "no build cache"}`);
   const sizes = [];
+  const works = [];
   for (const n of options.objects) {
     log(`\n${n} objects`);
-    sizes.push(await runSize(n, options, probe, cached, log));
+    const { work, ...size } = await runSize(n, options, probe, cached, log);
+    works.push(work);
+    sizes.push(size);
   }
+  // deleted only now, after every size's runs (see moveAside in runSize)
+  if (!options.keep) for (const work of works) rmSync(work, { recursive: true, force: true });
   const results = {
     started: started.toISOString(),
     finished: new Date().toISOString(),
