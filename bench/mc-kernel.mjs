@@ -6,7 +6,7 @@
 // speed-up of the kernels as a ratio against the original loop. Then the
 // throughput of the worker pool on many measurements, against one thread.
 //
-//   npx tsc -p . && node bench/mc-kernel.mjs [--draws 20000] [--rounds 5] [--pool-jobs 2000]
+//   npx tsc -p . && node bench/mc-kernel.mjs [--draws 20000] [--rounds 5] [--pool-jobs 2000] [--catalogue 2000]
 //
 // The measurements are invented, with the input combinations and relative
 // uncertainties of a typical catalogue; the mix weights each combination by how
@@ -19,6 +19,7 @@ import { getMethod } from "../dist/methods/index.js";
 import { runMonteCarlo, summarizeSorted } from "../dist/uncertainty/monte-carlo.js";
 import { Random } from "../dist/uncertainty/random.js";
 import { startMonteCarloPool } from "../dist/uncertainty/monte-carlo-pool.js";
+import { catalogueJobs } from "./catalogue-jobs.mjs";
 
 function flag(name, fallback) {
   const i = process.argv.indexOf(name);
@@ -27,6 +28,7 @@ function flag(name, fallback) {
 const DRAWS = flag("--draws", 20_000);
 const ROUNDS = flag("--rounds", 5);
 const POOL_JOBS = flag("--pool-jobs", 2000);
+const CATALOGUE = flag("--catalogue", 2000);
 
 // SI factors (IAU 2012 au, Julian year, IAU 2015 nominal solar GM)
 const DAY = 86400;
@@ -173,4 +175,33 @@ if (!pool) {
   console.log(`  workers / one thread, wall clock: ${(one.wall / many.wall).toFixed(2)}×`);
   console.log(`  runs identical to one thread: ${same ? "yes" : "NO"}`);
   if (!same) process.exitCode = 1;
+}
+
+// The generated catalogue's own measurements (bench/generate.mjs, objects 1..CATALOGUE, seed 1),
+// each run once on this thread as check runs it: the mix above is a guess at a catalogue, this is
+// one, with every combination of inputs and uncertainty form the generator writes.
+if (CATALOGUE > 0) {
+  const list = catalogueJobs(CATALOGUE, 1, DRAWS);
+  const per = new Map();
+  for (const { method, job } of list) {
+    const t0 = cpuSeconds();
+    const r = runMonteCarlo(method, job.inputs, job.draws, job.seed);
+    const dt = cpuSeconds() - t0;
+    const e = per.get(method.id) ?? { jobs: 0, draws: 0, attempts: 0, seconds: 0 };
+    e.jobs++;
+    e.draws += r.draws;
+    e.attempts += r.draws + r.rejected;
+    e.seconds += dt;
+    per.set(method.id, e);
+  }
+  console.log(`\nthe generated catalogue, objects 1–${CATALOGUE}: ${list.length} measurements × ${DRAWS} draws, one thread`);
+  console.log("method                 measurements  M draws / CPU second  ns per draw  rejected");
+  const all = { jobs: 0, draws: 0, attempts: 0, seconds: 0 };
+  const row = (label, e) =>
+    `${label.padEnd(22)} ${String(e.jobs).padStart(12)}  ${fmt(e.draws / e.seconds).padStart(20)}  ${((e.seconds * 1e9) / e.draws).toFixed(1).padStart(11)}  ${((100 * (e.attempts - e.draws)) / e.attempts).toFixed(1).padStart(7)} %`;
+  for (const [id, e] of [...per].sort((a, b) => a[0].localeCompare(b[0]))) {
+    console.log(row(id, e));
+    for (const k of Object.keys(all)) all[k] += e[k];
+  }
+  console.log(row("all", all));
 }

@@ -250,6 +250,24 @@ describe("benchmark statistics and options", () => {
   });
 });
 
+describe("the catalogue's Monte Carlo jobs", () => {
+  it("gives one job per measurement, of every method, the same each time", async () => {
+    const { catalogueJobs } = await import("../../bench/catalogue-jobs.mjs");
+    const jobs = catalogueJobs(60, 1, 100);
+    let measurements = 0;
+    for (let n = 1; n <= 60; n++) measurements += objectRecord(n, 1).measurements;
+    expect(jobs.length).toBe(measurements);
+    expect(new Set(jobs.map((j: { method: { id: string } }) => j.method.id)).size).toBe(5);
+    for (const { method, job } of jobs) {
+      expect(job.method).toBe(method.id);
+      expect(job.draws).toBe(100);
+    }
+    // one seed per measurement, and the same jobs again
+    expect(new Set(jobs.map((j: { job: { seed: number } }) => j.job.seed)).size).toBe(jobs.length);
+    expect(JSON.stringify(catalogueJobs(60, 1, 100).map((j: { job: unknown }) => j.job))).toBe(JSON.stringify(jobs.map((j: { job: unknown }) => j.job)));
+  });
+});
+
 describe("profile summary", () => {
   const root = pathToFileURL(path.resolve(import.meta.dirname, "..", "..")).href;
 
