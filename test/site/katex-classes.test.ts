@@ -4,23 +4,17 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { cssPieces, DECLARATIONS, katexStylesheet, OUTER_CLASSES, renameSelectors, selectorClasses, shortName } from "../../src/site/katex-classes.js";
 import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet } from "../../src/site/katex-compact.js";
-import { METHODS } from "../../src/methods/index.js";
 import { classesIn } from "./helpers/css-classes.js";
+import { sampleTex } from "./helpers/katex-samples.js";
 import { startTags } from "./helpers/html-scan.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const SITE_CSS = readFileSync(path.join(ROOT, "content/assets/site.css"), "utf8");
 const OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
 
-/** Every equation and symbol of every method, display and inline. */
+/** The samples, as KaTeX writes them. */
 function renderedSamples(): string[] {
-  const out: string[] = [];
-  for (const m of METHODS) {
-    for (const e of m.equations) out.push(katex.renderToString(e.latex, { ...OPTIONS, displayMode: true }));
-    for (const s of [...m.inputs, ...m.results]) out.push(katex.renderToString(s.symbol, { ...OPTIONS, displayMode: false }));
-  }
-  out.push(katex.renderToString("\\sqrt{1-e^{2}} = \\left(\\frac{a}{b}\\right)^{1/3}", { ...OPTIONS, displayMode: true }));
-  return out;
+  return sampleTex().map(({ tex, display }) => katex.renderToString(tex, { ...OPTIONS, displayMode: display }));
 }
 
 describe("short class names", () => {

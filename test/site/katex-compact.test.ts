@@ -4,31 +4,14 @@ import path from "node:path";
 import { describe, expect, it } from "vitest";
 import { compactKatex, katexClassMap, originalClassName, siteKatexStylesheet, UNSTYLED_CLASSES } from "../../src/site/katex-compact.js";
 import { DECLARATIONS } from "../../src/site/katex-classes.js";
-import { METHODS } from "../../src/methods/index.js";
 import { templateOf, texSkeleton } from "../../src/site/tex-skeleton.js";
 import { classesIn } from "./helpers/css-classes.js";
+import { sampleTex } from "./helpers/katex-samples.js";
 import { startTags } from "./helpers/html-scan.js";
 
 const ROOT = path.resolve(__dirname, "../..");
 const OPTIONS = { throwOnError: true, strict: "error", trust: false, output: "htmlAndMathml" } as const;
 const STYLE_SHEETS = [path.join(ROOT, "node_modules/katex/dist/katex.min.css"), path.join(ROOT, "content/assets/site.css")];
-
-/** Equations of every kind the site typesets: each method's general forms and some substituted shapes. */
-function sampleTex(): Array<{ tex: string; display: boolean }> {
-  const out: Array<{ tex: string; display: boolean }> = [];
-  for (const m of METHODS) {
-    for (const e of m.equations) out.push({ tex: e.latex, display: true });
-    for (const i of m.inputs) out.push({ tex: i.symbol, display: false });
-    for (const r of m.results) out.push({ tex: r.symbol, display: false });
-  }
-  out.push(
-    { tex: "d = \\frac{1\\,\\mathrm{au}}{5.915\\times10^{-7}\\,\\mathrm{rad}} = 2.529\\times10^{17}\\,\\mathrm{m}", display: true },
-    { tex: "\\left(\\frac{P}{2\\pi\\mathcal{G}}\\right)^{1/3} K\\sqrt{1-e^{2}} = 0.0124\\,M_{\\odot}", display: true },
-    { tex: "M_{\\mathrm{tot}}", display: false },
-    { tex: "x = -0.5, 10.25, (a, b] \\leq \\sin^{3} i", display: false },
-  );
-  return out;
-}
 
 /** The tags (start and end) and the text of an HTML string, in order, as a flat list. */
 function tokens(html: string): string[] {
