@@ -41,6 +41,8 @@ export const UNSTYLED_CLASSES: ReadonlySet<string> = new Set(["mord", "mtight", 
 
 let classMap: Map<string, string> | undefined;
 let originals: Map<string, string> | undefined;
+let declarationClasses: Map<string, string> | undefined;
+let sheet: string | undefined;
 
 /**
  * KaTeX's class name, or a declaration of DECLARATIONS, → the short class
@@ -58,11 +60,28 @@ export function originalClassName(short: string): string | undefined {
   return originals.get(short);
 }
 
-/** The style sheet the site ships for its equations: KaTeX's with the short names, and the rules of the declaration classes. */
+/** A declaration of DECLARATIONS → its short class name. */
+function declarationClassMap(): ReadonlyMap<string, string> {
+  declarationClasses ??= new Map(DECLARATIONS.map((d) => [d, katexClassMap().get(d)!]));
+  return declarationClasses;
+}
+
+/** Whether a class of the compacted HTML part stands for an inline declaration (DECLARATIONS), not for a class of KaTeX's. */
+export function isDeclarationClass(short: string): boolean {
+  const original = originalClassName(short);
+  return original !== undefined && declarationClassMap().has(original);
+}
+
+/**
+ * The style sheet the site ships for its equations: KaTeX's with the short
+ * names, and the rules of the declaration classes. Made once per thread.
+ */
 export function siteKatexStylesheet(): string {
-  const map = katexClassMap();
-  const rules = DECLARATIONS.map((d) => `.katex .${map.get(d)}{${d}!important}`).join("");
-  return renameSelectors(katexStylesheet(), map) + rules;
+  if (sheet === undefined) {
+    const rules = [...declarationClassMap()].map(([d, short]) => `.katex .${short}{${d}!important}`).join("");
+    sheet = renameSelectors(katexStylesheet(), katexClassMap()) + rules;
+  }
+  return sheet;
 }
 
 let sheetPath: string | undefined;
@@ -107,12 +126,12 @@ function compactAttribute(_match: string, name: string, value: string): string {
 
 /** A span with the declarations of DECLARATIONS moved from its style into its classes, in their order. */
 function declarationsToClasses(tag: string, classes: string | undefined, style: string): string {
-  const map = katexClassMap();
+  const map = declarationClassMap();
   let names = classes ?? "";
   let rest = "";
   for (const declaration of style.split(";")) {
     const short = map.get(declaration);
-    if (short !== undefined && declaration.includes(":")) names = names === "" ? short : names + " " + short;
+    if (short !== undefined) names = names === "" ? short : names + " " + short;
     else rest = rest === "" ? declaration : rest + ";" + declaration;
   }
   if (rest === style) return tag;

@@ -1,4 +1,4 @@
-import { originalClassName } from "./katex-compact.js";
+import { isDeclarationClass, originalClassName } from "./katex-compact.js";
 
 /**
  * The shape of a TeX string, apart from its numbers.
@@ -180,10 +180,10 @@ function contextProblem(rendered: string, at: number, region: Region): string | 
   // a span without classes is set in the main font, whose digits are all alike
   if (classes[1] === undefined) return undefined;
   for (const name of classes[1].split(" ")) {
-    // compaction writes KaTeX's classes by their short names (katex-classes.ts), and some
-    // inline declarations as classes: a declaration, like any inline style, is not a font
+    // compaction writes some inline declarations as classes: a declaration, like any inline
+    // style, is not a font; and KaTeX's classes by their short names (katex-classes.ts)
+    if (isDeclarationClass(name)) continue;
     const original = originalClassName(name) ?? name;
-    if (original.includes(":")) continue;
     if (!SWAPPABLE_CLASSES.has(original)) return `a number is set with class ${original}, whose digits are not all alike`;
   }
   return undefined;
