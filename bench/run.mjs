@@ -500,14 +500,18 @@ async function main(argv) {
   log(`steelyard benchmark: sizes ${options.objects.join(", ")}; ${options.runs} run(s) per step; steps ${options.steps.join(", ")}; memory from ${probe}; ${cached ? "build cache per size, emptied before each full build" : "no build cache"}`);
   const sizes = [];
   const works = [];
-  for (const n of options.objects) {
-    log(`\n${n} objects`);
-    const { work, ...size } = await runSize(n, options, probe, cached, log);
-    works.push(work);
-    sizes.push(size);
+  try {
+    for (const n of options.objects) {
+      log(`\n${n} objects`);
+      const { work, ...size } = await runSize(n, options, probe, cached, log);
+      works.push(work);
+      sizes.push(size);
+    }
+  } finally {
+    // deleted only now, after every size's runs (see moveAside in runSize), and also when a later size
+    // fails: its own folder, named in the error, is kept, but the finished sizes' gigabytes are not
+    if (!options.keep) for (const work of works) rmSync(work, { recursive: true, force: true });
   }
-  // deleted only now, after every size's runs (see moveAside in runSize)
-  if (!options.keep) for (const work of works) rmSync(work, { recursive: true, force: true });
   const results = {
     started: started.toISOString(),
     finished: new Date().toISOString(),
